@@ -99,17 +99,17 @@ var (
 	pyramidFaces = [][]int{{0, 3, 2, 1}, {0, 1, 4}, {1, 2, 4}, {2, 3, 4}, {3, 0, 4}}
 )
 
-// Location says whether an array holds one tuple per point or per cell.
-type Location uint8
+// Centering says whether an array holds one tuple per point or per cell.
+type Centering uint8
 
 // Array locations.
 const (
-	AtPoints Location = iota
+	AtPoints Centering = iota
 	AtCells
 )
 
 // String returns "point" or "cell".
-func (l Location) String() string {
+func (l Centering) String() string {
 	if l == AtCells {
 		return "cell"
 	}
@@ -120,7 +120,7 @@ func (l Location) String() string {
 // Data holds Len*Components values, tuple by tuple (interleaved).
 type Array struct {
 	Name       string
-	Location   Location
+	Location   Centering
 	Components int
 	Data       []float64
 }
