@@ -1,7 +1,3 @@
-// Package surface builds closed control surfaces (sphere, box, cylinder;
-// circle, rectangle and polygon contours in 2D; closed surfaces read from a
-// file) and cuts them through a mesh so that every piece lies inside exactly
-// one cell and carries its own quadrature rule.
 package surface
 
 import "farforce/field"
