@@ -1,0 +1,104 @@
+package field_test
+
+import (
+	"math"
+	"math/rand/v2"
+	"runtime"
+	"testing"
+
+	"farforce/field"
+	"farforce/field/fieldtest"
+)
+
+// Benchmarks on about a million cells: a 100³ hexahedral box (10⁶ cells)
+// and a 55³ box of Kuhn tetrahedra (~1.0·10⁶ cells), both perturbed so
+// that cells are not axis-aligned.
+
+var benchZones = map[string]func() *field.Zone{
+	"hexa": func() *field.Zone {
+		z := fieldtest.BoxHex(unitLo, unitHi, [3]int{100, 100, 100})
+		fieldtest.Perturb(z, 0.1/100, 1)
+		return z
+	},
+	"tetra": func() *field.Zone {
+		z := fieldtest.BoxTet(unitLo, unitHi, [3]int{55, 55, 55})
+		fieldtest.Perturb(z, 0.1/55, 1)
+		return z
+	},
+}
+
+var benchCache = map[string]*field.Zone{}
+
+func benchZone(b *testing.B, name string) *field.Zone {
+	b.Helper()
+	if z, ok := benchCache[name]; ok {
+		return z
+	}
+	z := benchZones[name]()
+	benchCache[name] = z
+	return z
+}
+
+func benchmarkBuild(b *testing.B, name string) {
+	z := benchZone(b, name)
+	f := &field.Field{Zones: []*field.Zone{z}}
+	b.ReportAllocs()
+	cpu0 := processCPU()
+	b.ResetTimer()
+	for b.Loop() {
+		if _, err := field.NewLocator(f); err != nil {
+			b.Fatal(err)
+		}
+	}
+	cells := float64(b.N) * float64(z.NumCells())
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/cells, "ns/cell")
+	b.ReportMetric(float64((processCPU() - cpu0).Nanoseconds())/cells, "cpu-ns/cell")
+	b.ReportMetric(cells/b.Elapsed().Seconds(), "cells/s")
+}
+
+func BenchmarkLocatorBuildHexa(b *testing.B)  { benchmarkBuild(b, "hexa") }
+func BenchmarkLocatorBuildTetra(b *testing.B) { benchmarkBuild(b, "tetra") }
+
+// benchmarkLocate times Locate on random points (every query a cache miss)
+// or on points along a fine spiral over a sphere (coherent queries, as a
+// surface cut makes them). Besides wall time it reports the CPU time of the
+// benchmark thread, which a loaded machine does not inflate.
+func benchmarkLocate(b *testing.B, name string, coherent bool) {
+	z := benchZone(b, name)
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
+	if err != nil {
+		b.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	pts := make([][3]float64, 1<<16)
+	for i := range pts {
+		if coherent {
+			// Spiral on the sphere of radius 0.3 about the box centre.
+			u := float64(i) / float64(len(pts))
+			th := math.Acos(1 - 2*u)
+			ph := 400 * math.Pi * u
+			pts[i] = [3]float64{0.5 + 0.3*math.Sin(th)*math.Cos(ph), 0.5 + 0.3*math.Sin(th)*math.Sin(ph), 0.5 + 0.3*math.Cos(th)}
+		} else {
+			pts[i] = [3]float64{rng.Float64(), rng.Float64(), rng.Float64()}
+		}
+	}
+	runtime.LockOSThread()
+	defer runtime.UnlockOSThread()
+	b.ReportAllocs()
+	cpu0 := threadCPU()
+	b.ResetTimer()
+	i := 0
+	for b.Loop() {
+		if _, ok := l.Locate(pts[i&(len(pts)-1)]); !ok {
+			b.Fatal("not located")
+		}
+		i++
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N), "ns/query")
+	b.ReportMetric(float64((threadCPU()-cpu0).Nanoseconds())/float64(b.N), "cpu-ns/query")
+}
+
+func BenchmarkLocateHexaRandom(b *testing.B)    { benchmarkLocate(b, "hexa", false) }
+func BenchmarkLocateTetraRandom(b *testing.B)   { benchmarkLocate(b, "tetra", false) }
+func BenchmarkLocateHexaCoherent(b *testing.B)  { benchmarkLocate(b, "hexa", true) }
+func BenchmarkLocateTetraCoherent(b *testing.B) { benchmarkLocate(b, "tetra", true) }

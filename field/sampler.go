@@ -1,0 +1,274 @@
+package field
+
+import (
+	"fmt"
+	"math"
+	"sync/atomic"
+)
+
+// ArrayID names an array prepared in a Sampler.
+type ArrayID int
+
+// GradientMethod selects how Sampler.GradientWith differentiates point data.
+type GradientMethod uint8
+
+const (
+	// GradientRecovered interpolates, with the shape functions, nodal
+	// gradients recovered by a least-squares quadratic fit to the nodal
+	// values around each node. Second order on smooth fields; the default.
+	GradientRecovered GradientMethod = iota
+	// GradientShape differentiates the shape-function interpolant itself:
+	// exact for fields the cell represents exactly (linear, and bilinear /
+	// trilinear on quads / hexahedra), first order otherwise, and
+	// discontinuous across cell faces.
+	GradientShape
+)
+
+// String returns "recovered" or "shape".
+func (m GradientMethod) String() string {
+	if m == GradientShape {
+		return "shape"
+	}
+	return "recovered"
+}
+
+// Sampler evaluates arrays of a located field, and their gradients, at
+// Locations. Point arrays are interpolated with the shape functions of the
+// cell; cell arrays are reconstructed by a least-squares quadratic fit per
+// cell (see the package documentation for formulas and measured orders).
+//
+// Prepare must not be called concurrently with anything else; after the
+// Prepare calls are done, Value, Gradient and GradientWith are safe for
+// concurrent use. Reconstructions and recovered gradients are computed on
+// first use and cached with atomic stores; the cached values depend only on
+// the field, so results are the same bits whatever the order or concurrency
+// of the queries.
+type Sampler struct {
+	l      *Locator
+	arrays []*prepared
+	byName map[string]ArrayID
+	used   [][]bool // per zone: points used by an indexed cell (built on demand)
+}
+
+// prepared is one array ready for sampling.
+type prepared struct {
+	name  string
+	at    Centering
+	comps int
+	data  [][]float64 // per zone
+	// cache holds, per zone, one lazily computed polyFit per cell (cell
+	// data) or one recovered gradient per point (point data).
+	cache [][]atomic.Pointer[polyFit]
+}
+
+// NewSampler returns a Sampler over the field of l.
+func NewSampler(l *Locator) *Sampler {
+	return &Sampler{l: l, byName: map[string]ArrayID{}}
+}
+
+// Prepare makes the array called name ready for sampling and returns its
+// id; preparing the same name again returns the same id. The array must
+// exist in every zone with the same centering and number of components and
+// the right length, and every value that sampling can reach must be finite:
+// for point arrays the values at points used by indexed cells, for cell
+// arrays the values of indexed (non-blank) cells. Otherwise the error names
+// the array, the zone and the first bad index. Cost: one pass over the
+// array; reconstructions are built lazily on first use.
+func (s *Sampler) Prepare(name string) (ArrayID, error) {
+	if id, ok := s.byName[name]; ok {
+		return id, nil
+	}
+	p := &prepared{name: name}
+	f := s.l.f
+	for zi, z := range f.Zones {
+		a := z.Array(name)
+		if a == nil {
+			return 0, fmt.Errorf("field: array %q: missing in zone %d (%q)", name, zi, z.Name)
+		}
+		if zi == 0 {
+			p.at, p.comps = a.Location, a.Components
+		} else if a.Location != p.at || a.Components != p.comps {
+			return 0, fmt.Errorf("field: array %q: zone %d (%q) has %d components at %ss, zone 0 has %d at %ss",
+				name, zi, z.Name, a.Components, a.Location, p.comps, p.at)
+		}
+		n := z.NumPoints()
+		if a.Location == AtCells {
+			n = z.NumCells()
+		}
+		if a.Components < 1 || len(a.Data) != n*a.Components {
+			return 0, fmt.Errorf("field: array %q: zone %d (%q): %d values for %d %ss of %d components",
+				name, zi, z.Name, len(a.Data), n, a.Location, a.Components)
+		}
+		if err := s.checkFinite(p, zi, a); err != nil {
+			return 0, err
+		}
+		p.data = append(p.data, a.Data)
+		p.cache = append(p.cache, make([]atomic.Pointer[polyFit], n))
+	}
+	id := ArrayID(len(s.arrays))
+	s.arrays = append(s.arrays, p)
+	s.byName[name] = id
+	return id, nil
+}
+
+// checkFinite reports the first non-finite value of a that sampling can
+// reach.
+func (s *Sampler) checkFinite(p *prepared, zi int, a *Array) error {
+	z := s.l.f.Zones[zi]
+	var used []bool
+	if a.Location == AtPoints {
+		used = s.usedPoints(zi)
+	}
+	for i, v := range a.Data {
+		if !math.IsNaN(v) && !math.IsInf(v, 0) {
+			continue
+		}
+		t := i / a.Components
+		if a.Location == AtCells && !s.l.indexable(z, t) || a.Location == AtPoints && !used[t] {
+			continue
+		}
+		return fmt.Errorf("field: array %q: zone %d (%q): %s %d component %d is %v",
+			p.name, zi, z.Name, a.Location, t, i%a.Components, v)
+	}
+	return nil
+}
+
+// usedPoints returns the mask of points of zone zi used by indexed cells.
+func (s *Sampler) usedPoints(zi int) []bool {
+	if s.used == nil {
+		s.used = make([][]bool, len(s.l.f.Zones))
+	}
+	if s.used[zi] == nil {
+		z := s.l.f.Zones[zi]
+		u := make([]bool, z.NumPoints())
+		for c := range z.Types {
+			if s.l.indexable(z, c) {
+				for _, n := range z.CellNodes(c) {
+					u[n] = true
+				}
+			}
+		}
+		s.used[zi] = u
+	}
+	return s.used[zi]
+}
+
+// Components returns the number of components of array id. It panics if id
+// was not returned by Prepare.
+func (s *Sampler) Components(id ArrayID) int { return s.arrays[id].comps }
+
+// Centering returns whether array id is given at points or at cells.
+func (s *Sampler) Centering(id ArrayID) Centering { return s.arrays[id].at }
+
+// Value stores in dst[:comps] the value of array id at the located point.
+// Point data: Σ_k N_k(r) f_k over the nodes k of the cell, with the shape
+// functions N_k of the cell type at local coordinates r. Cell data: the
+// cell's least-squares quadratic reconstruction at the point.
+//
+// It panics (programmer error) if id is unknown, at names no cell of the
+// field, or dst is shorter than the number of components.
+func (s *Sampler) Value(id ArrayID, at Location, dst []float64) {
+	p := s.arrays[id]
+	_ = dst[p.comps-1]
+	z := s.l.f.Zones[at.Zone]
+	var g cellGeom
+	if !z.gather(int(at.Cell), &g) {
+		fillNaN(dst[:p.comps])
+		return
+	}
+	if p.at == AtCells {
+		fit := s.cellFit(p, int(at.Zone), int(at.Cell))
+		fit.value(g.position(at.Local), dst)
+		return
+	}
+	var N [maxCellNodes]float64
+	shapeValues(g.t, at.Local, &N)
+	data := p.data[at.Zone]
+	nodes := z.CellNodes(int(at.Cell))
+	for c := 0; c < p.comps; c++ {
+		v := 0.0
+		for k, n := range nodes {
+			v += N[k] * data[int(n)*p.comps+c]
+		}
+		dst[c] = v
+	}
+}
+
+// Gradient stores in dst[3*c+j] the derivative of component c of array id
+// with respect to x_j at the located point, by the default method:
+// GradientRecovered for point data, the gradient of the quadratic
+// reconstruction for cell data. In 2D the z derivatives are zero. It
+// panics like Value, or if len(dst) < 3*comps.
+func (s *Sampler) Gradient(id ArrayID, at Location, dst []float64) {
+	s.GradientWith(GradientRecovered, id, at, dst)
+}
+
+// GradientWith is Gradient with a chosen method for point data:
+//
+//	GradientShape:     ∇f = Σ_k f_k ∇N_k,  ∇N_k = J⁻ᵀ ∂N_k/∂r,  J = ∂x/∂r
+//	GradientRecovered: ∇f = Σ_k N_k(r) G_k
+//
+// where G_k is the gradient at node k of a least-squares quadratic fitted to
+// the nodal values of the cells around node k (more layers where fewer than
+// 1.5 times as many nodes as coefficients are found). Cell data ignore m.
+// A degenerate cell yields NaN.
+func (s *Sampler) GradientWith(m GradientMethod, id ArrayID, at Location, dst []float64) {
+	p := s.arrays[id]
+	_ = dst[3*p.comps-1]
+	z := s.l.f.Zones[at.Zone]
+	var g cellGeom
+	if !z.gather(int(at.Cell), &g) {
+		fillNaN(dst[:3*p.comps])
+		return
+	}
+	if p.at == AtCells {
+		fit := s.cellFit(p, int(at.Zone), int(at.Cell))
+		fit.gradient(g.position(at.Local), dst)
+		return
+	}
+	nodes := z.CellNodes(int(at.Cell))
+	for i := range dst[:3*p.comps] {
+		dst[i] = 0
+	}
+	if m == GradientShape {
+		var dNdx [maxCellNodes][3]float64
+		if !g.gradientMap(at.Local, &dNdx) {
+			fillNaN(dst[:3*p.comps])
+			return
+		}
+		data := p.data[at.Zone]
+		for k, n := range nodes {
+			for c := 0; c < p.comps; c++ {
+				v := data[int(n)*p.comps+c]
+				for j := 0; j < 3; j++ {
+					dst[3*c+j] += v * dNdx[k][j]
+				}
+			}
+		}
+		return
+	}
+	var N [maxCellNodes]float64
+	shapeValues(g.t, at.Local, &N)
+	var G [3 * maxInlineComps]float64
+	grad := G[:]
+	if 3*p.comps > len(grad) {
+		grad = make([]float64, 3*p.comps)
+	}
+	for k, n := range nodes {
+		fit := s.nodeFit(p, int(at.Zone), n)
+		fit.gradient(fit.x0, grad)
+		for i, v := range grad[:3*p.comps] {
+			dst[i] += N[k] * v
+		}
+	}
+}
+
+// maxInlineComps is the component count up to which scratch space lives on
+// the stack.
+const maxInlineComps = 9
+
+func fillNaN(d []float64) {
+	for i := range d {
+		d[i] = math.NaN()
+	}
+}

@@ -1,0 +1,354 @@
+package field
+
+import "math"
+
+// maxCellNodes is the largest node count of a supported cell (hexahedron).
+const maxCellNodes = 8
+
+// localTol is the tolerance on local coordinates used by containment tests:
+// a point whose local coordinates lie within localTol outside the reference
+// cell counts as inside. It is relative to the cell size.
+const localTol = 1e-9
+
+// cellGeom holds the node coordinates of one cell, gathered for the shape
+// function routines. For 2D cells only x and y are used.
+type cellGeom struct {
+	t   CellType
+	n   int
+	dim int
+	x   [maxCellNodes][3]float64
+}
+
+// supported reports whether the shape functions handle cell type t.
+func supported(t CellType) bool {
+	switch t {
+	case Triangle, Quad, Tetra, Hexa, Wedge, Pyramid:
+		return true
+	}
+	return false
+}
+
+// gather fills g with the nodes of cell c of z. It returns false for cell
+// types without shape functions (vertices, lines, polygons).
+func (z *Zone) gather(c int, g *cellGeom) bool {
+	t := z.Types[c]
+	if !supported(t) {
+		return false
+	}
+	g.t, g.dim = t, t.Dim()
+	nodes := z.Conn[z.Offsets[c]:z.Offsets[c+1]]
+	g.n = len(nodes)
+	for i, p := range nodes {
+		q := z.Points[3*p : 3*p+3 : 3*p+3]
+		g.x[i] = [3]float64{q[0], q[1], q[2]}
+	}
+	return true
+}
+
+// shapeValues stores in N the shape functions of type t at local
+// coordinates r (see Location for the parametrisation of each type).
+func shapeValues(t CellType, r [3]float64, N *[maxCellNodes]float64) {
+	u, v, w := r[0], r[1], r[2]
+	switch t {
+	case Triangle:
+		N[0], N[1], N[2] = 1-u-v, u, v
+	case Tetra:
+		N[0], N[1], N[2], N[3] = 1-u-v-w, u, v, w
+	case Quad:
+		N[0], N[1], N[2], N[3] = (1-u)*(1-v), u*(1-v), u*v, (1-u)*v
+	case Hexa:
+		a, b := 1-w, w
+		N[0], N[1], N[2], N[3] = (1-u)*(1-v)*a, u*(1-v)*a, u*v*a, (1-u)*v*a
+		N[4], N[5], N[6], N[7] = (1-u)*(1-v)*b, u*(1-v)*b, u*v*b, (1-u)*v*b
+	case Wedge:
+		l := 1 - u - v
+		N[0], N[1], N[2] = l*(1-w), u*(1-w), v*(1-w)
+		N[3], N[4], N[5] = l*w, u*w, v*w
+	case Pyramid:
+		a := 1 - w
+		N[0], N[1], N[2], N[3] = (1-u)*(1-v)*a, u*(1-v)*a, u*v*a, (1-u)*v*a
+		N[4] = w
+	}
+}
+
+// shapeDerivs stores in dN the derivatives of the shape functions of type t
+// with respect to the local coordinates, dN[i][j] = ∂N_i/∂r_j.
+func shapeDerivs(t CellType, r [3]float64, dN *[maxCellNodes][3]float64) {
+	u, v, w := r[0], r[1], r[2]
+	switch t {
+	case Triangle:
+		dN[0] = [3]float64{-1, -1, 0}
+		dN[1] = [3]float64{1, 0, 0}
+		dN[2] = [3]float64{0, 1, 0}
+	case Tetra:
+		dN[0] = [3]float64{-1, -1, -1}
+		dN[1] = [3]float64{1, 0, 0}
+		dN[2] = [3]float64{0, 1, 0}
+		dN[3] = [3]float64{0, 0, 1}
+	case Quad:
+		dN[0] = [3]float64{-(1 - v), -(1 - u), 0}
+		dN[1] = [3]float64{1 - v, -u, 0}
+		dN[2] = [3]float64{v, u, 0}
+		dN[3] = [3]float64{-v, 1 - u, 0}
+	case Hexa:
+		a, b := 1-w, w
+		dN[0] = [3]float64{-(1 - v) * a, -(1 - u) * a, -(1 - u) * (1 - v)}
+		dN[1] = [3]float64{(1 - v) * a, -u * a, -u * (1 - v)}
+		dN[2] = [3]float64{v * a, u * a, -u * v}
+		dN[3] = [3]float64{-v * a, (1 - u) * a, -(1 - u) * v}
+		dN[4] = [3]float64{-(1 - v) * b, -(1 - u) * b, (1 - u) * (1 - v)}
+		dN[5] = [3]float64{(1 - v) * b, -u * b, u * (1 - v)}
+		dN[6] = [3]float64{v * b, u * b, u * v}
+		dN[7] = [3]float64{-v * b, (1 - u) * b, (1 - u) * v}
+	case Wedge:
+		l := 1 - u - v
+		dN[0] = [3]float64{-(1 - w), -(1 - w), -l}
+		dN[1] = [3]float64{1 - w, 0, -u}
+		dN[2] = [3]float64{0, 1 - w, -v}
+		dN[3] = [3]float64{-w, -w, l}
+		dN[4] = [3]float64{w, 0, u}
+		dN[5] = [3]float64{0, w, v}
+	case Pyramid:
+		a := 1 - w
+		dN[0] = [3]float64{-(1 - v) * a, -(1 - u) * a, -(1 - u) * (1 - v)}
+		dN[1] = [3]float64{(1 - v) * a, -u * a, -u * (1 - v)}
+		dN[2] = [3]float64{v * a, u * a, -u * v}
+		dN[3] = [3]float64{-v * a, (1 - u) * a, -(1 - u) * v}
+		dN[4] = [3]float64{0, 0, 1}
+	}
+}
+
+// contains reports whether local coordinates r lie in the reference cell of
+// type t, allowing tol outside.
+func contains(t CellType, r [3]float64, tol float64) bool {
+	u, v, w := r[0], r[1], r[2]
+	lo, hi := -tol, 1+tol
+	switch t {
+	case Triangle:
+		return u >= lo && v >= lo && u+v <= hi
+	case Tetra:
+		return u >= lo && v >= lo && w >= lo && u+v+w <= hi
+	case Quad:
+		return u >= lo && u <= hi && v >= lo && v <= hi
+	case Hexa, Pyramid:
+		return u >= lo && u <= hi && v >= lo && v <= hi && w >= lo && w <= hi
+	case Wedge:
+		return u >= lo && v >= lo && u+v <= hi && w >= lo && w <= hi
+	}
+	return false
+}
+
+// jacobian returns J[i][j] = ∂x_i/∂r_j of the map of g at the derivatives
+// dN, restricted to g.dim rows and columns (the rest is the identity).
+func (g *cellGeom) jacobian(dN *[maxCellNodes][3]float64) (J [3][3]float64) {
+	for k := 0; k < g.n; k++ {
+		x, d := &g.x[k], &dN[k]
+		for i := 0; i < g.dim; i++ {
+			for j := 0; j < g.dim; j++ {
+				J[i][j] += x[i] * d[j]
+			}
+		}
+	}
+	if g.dim == 2 {
+		J[2][2] = 1
+	}
+	return J
+}
+
+// position returns the point of g at local coordinates r.
+func (g *cellGeom) position(r [3]float64) (x [3]float64) {
+	var N [maxCellNodes]float64
+	shapeValues(g.t, r, &N)
+	for k := 0; k < g.n; k++ {
+		for i := 0; i < 3; i++ {
+			x[i] += N[k] * g.x[k][i]
+		}
+	}
+	return x
+}
+
+// size returns the largest extent of the bounding box of g.
+func (g *cellGeom) size() float64 {
+	var h float64
+	for i := 0; i < g.dim; i++ {
+		lo, hi := g.x[0][i], g.x[0][i]
+		for k := 1; k < g.n; k++ {
+			lo, hi = math.Min(lo, g.x[k][i]), math.Max(hi, g.x[k][i])
+		}
+		h = math.Max(h, hi-lo)
+	}
+	return h
+}
+
+// start returns the local coordinates of the node centroid of type t, where
+// Newton iterations begin.
+func start(t CellType) [3]float64 {
+	switch t {
+	case Quad:
+		return [3]float64{0.5, 0.5, 0}
+	case Hexa:
+		return [3]float64{0.5, 0.5, 0.5}
+	case Wedge:
+		return [3]float64{1.0 / 3, 1.0 / 3, 0.5}
+	case Pyramid:
+		return [3]float64{0.5, 0.5, 0.2}
+	}
+	return [3]float64{}
+}
+
+// newtonIters bounds the Newton iterations of the inverse map; a point
+// inside a valid cell converges in 2-6 (quadratic convergence from the
+// centroid), so hitting the bound means the point is far outside or the
+// cell is folded.
+const newtonIters = 40
+
+// local returns the local coordinates of p in g. ok is false when the
+// inverse map could not be computed (degenerate cell, or Newton iteration
+// not converged, which happens only for points well outside the cell).
+// Simplices are inverted directly; other types by Newton iteration from the
+// centroid with steps limited to the box [-1,2]^d, which keeps iterates near
+// the cell for distorted shapes.
+func (g *cellGeom) local(p [3]float64) (r [3]float64, ok bool) {
+	switch g.t {
+	case Triangle, Tetra:
+		return g.localSimplex(p)
+	}
+	r = start(g.t)
+	h := g.size()
+	if !(h > 0) {
+		return r, false
+	}
+	var dN [maxCellNodes][3]float64
+	for it := 0; it < newtonIters; it++ {
+		x := g.position(r)
+		var res [3]float64
+		for i := 0; i < g.dim; i++ {
+			res[i] = p[i] - x[i]
+		}
+		shapeDerivs(g.t, r, &dN)
+		J := g.jacobian(&dN)
+		d, good := solve3(J, res)
+		if !good {
+			if g.t == Pyramid && math.Abs(r[2]-1) < 1e-6 {
+				// At the apex the map is singular; the point is the apex.
+				return r, norm2(res) <= (localTol*h)*(localTol*h)
+			}
+			return r, false
+		}
+		step := 0.0
+		for i := 0; i < g.dim; i++ {
+			r[i] += d[i]
+			step = math.Max(step, math.Abs(d[i]))
+			r[i] = math.Max(-1, math.Min(2, r[i]))
+		}
+		if step < 1e-13 {
+			return r, true
+		}
+		if g.t == Pyramid && r[2] > 1-1e-12 && r[2] < 1+1e-12 {
+			// Keep off the singular apex plane while iterating.
+			r[2] = 1 - 1e-12
+		}
+	}
+	// Accept a converged residual even if steps stagnated at rounding level.
+	x := g.position(r)
+	var res [3]float64
+	for i := 0; i < g.dim; i++ {
+		res[i] = p[i] - x[i]
+	}
+	return r, norm2(res) <= (1e-12*h)*(1e-12*h)
+}
+
+// localSimplex inverts the affine map of a triangle or tetrahedron.
+func (g *cellGeom) localSimplex(p [3]float64) (r [3]float64, ok bool) {
+	var J [3][3]float64
+	var b [3]float64
+	for i := 0; i < g.dim; i++ {
+		for j := 0; j < g.dim; j++ {
+			J[i][j] = g.x[j+1][i] - g.x[0][i]
+		}
+		b[i] = p[i] - g.x[0][i]
+	}
+	if g.dim == 2 {
+		J[2][2] = 1
+	}
+	r, ok = solve3(J, b)
+	r[2] *= float64(g.dim - 2) // zero for triangles
+	return r, ok
+}
+
+// solve3 solves J x = b by Cramer's rule. ok is false when J is singular
+// relative to the size of its entries.
+func solve3(J [3][3]float64, b [3]float64) (x [3]float64, ok bool) {
+	c0 := J[1][1]*J[2][2] - J[1][2]*J[2][1]
+	c1 := J[1][2]*J[2][0] - J[1][0]*J[2][2]
+	c2 := J[1][0]*J[2][1] - J[1][1]*J[2][0]
+	det := J[0][0]*c0 + J[0][1]*c1 + J[0][2]*c2
+	scale := 0.0
+	for i := 0; i < 3; i++ {
+		s := math.Abs(J[i][0]) + math.Abs(J[i][1]) + math.Abs(J[i][2])
+		if i == 0 {
+			scale = s
+		} else {
+			scale *= s
+		}
+	}
+	if !(math.Abs(det) > 1e-14*scale) {
+		return x, false
+	}
+	inv := 1 / det
+	x[0] = (b[0]*c0 + b[1]*(J[0][2]*J[2][1]-J[0][1]*J[2][2]) + b[2]*(J[0][1]*J[1][2]-J[0][2]*J[1][1])) * inv
+	x[1] = (b[0]*c1 + b[1]*(J[0][0]*J[2][2]-J[0][2]*J[2][0]) + b[2]*(J[0][2]*J[1][0]-J[0][0]*J[1][2])) * inv
+	x[2] = (b[0]*c2 + b[1]*(J[0][1]*J[2][0]-J[0][0]*J[2][1]) + b[2]*(J[0][0]*J[1][1]-J[0][1]*J[1][0])) * inv
+	return x, true
+}
+
+// solve3T solves Jᵀ x = b.
+func solve3T(J [3][3]float64, b [3]float64) ([3]float64, bool) {
+	var T [3][3]float64
+	for i := 0; i < 3; i++ {
+		for j := 0; j < 3; j++ {
+			T[i][j] = J[j][i]
+		}
+	}
+	return solve3(T, b)
+}
+
+func norm2(v [3]float64) float64 { return v[0]*v[0] + v[1]*v[1] + v[2]*v[2] }
+
+// gradientMap returns the shape-function derivatives with respect to x of
+// cell g at local coordinates r: dNdx[k][j] = ∂N_k/∂x_j, computed through the
+// Jacobian, ∇_x N = J⁻ᵀ ∇_r N. For a pyramid the apex plane r[2] = 1 is
+// singular; r[2] is capped just below it, which keeps gradients of fields
+// that the pyramid represents exactly (linear fields) exact. ok is false for
+// a degenerate cell.
+func (g *cellGeom) gradientMap(r [3]float64, dNdx *[maxCellNodes][3]float64) bool {
+	if g.t == Pyramid && r[2] > 1-1e-7 {
+		r[2] = 1 - 1e-7
+	}
+	var dN [maxCellNodes][3]float64
+	shapeDerivs(g.t, r, &dN)
+	J := g.jacobian(&dN)
+	// Invert J once: columns of J⁻ᵀ give the map of each gradient.
+	var inv [3][3]float64
+	for j := 0; j < 3; j++ {
+		var e [3]float64
+		e[j] = 1
+		col, ok := solve3T(J, e)
+		if !ok {
+			return false
+		}
+		for i := 0; i < 3; i++ {
+			inv[i][j] = col[i]
+		}
+	}
+	for k := 0; k < g.n; k++ {
+		d := dN[k]
+		for i := 0; i < 3; i++ {
+			dNdx[k][i] = inv[i][0]*d[0] + inv[i][1]*d[1] + inv[i][2]*d[2]
+		}
+		if g.dim == 2 {
+			dNdx[k][2] = 0
+		}
+	}
+	return true
+}
