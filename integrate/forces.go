@@ -1,0 +1,257 @@
+package integrate
+
+import (
+	"fmt"
+	"math"
+	"runtime"
+	"sync"
+	"sync/atomic"
+
+	"farforce/field"
+	"farforce/surface"
+)
+
+// ChunkSize is the number of quadrature points summed together before
+// chunk sums are combined; it fixes the summation order independently of
+// the number of workers.
+const ChunkSize = 1024
+
+// Layout of the running sums of one chunk.
+const (
+	sMom  = 0  // force terms: 4 × 3
+	sPrs  = 3  //
+	sVis  = 6  //
+	sRey  = 9  //
+	sMom2 = 12 // moment terms: 4 × 3
+	sMass = 24 // ∮ρV·n
+	sAbs  = 25 // ∮ρ|V·n|
+	nSums = 26
+)
+
+type sums [nSums]neumaier
+
+// Forces integrates the momentum balance over the cut c with the flow
+// given by flow and returns forces, their parts, the moment about
+// opt.MomentCenter, wind-axis components, coefficients and mass closure
+// (formulas in the package documentation). The forces are those of the
+// fluid on the enclosed body; the normals of c must point out of the
+// control volume, away from the body.
+//
+// flow must be safe for concurrent use: it is called from opt.Workers
+// goroutines. The result is bit-identical for any number of workers.
+//
+// Errors: nil cut or flow, a cut dimension other than 2 or 3, invalid
+// options (ErrOption), non-finite quadrature data (ErrCut), and a NaN or
+// infinite flow value at a quadrature point (*ValueError naming the point,
+// its position and cell; the lowest such point index is reported).
+func Forces(c *surface.Cut, flow field.FlowEvaluator, opt Options) (Result, error) {
+	if c == nil {
+		return Result{}, fmt.Errorf("%w: nil cut", ErrCut)
+	}
+	if flow == nil {
+		return Result{}, fmt.Errorf("%w: nil flow evaluator", ErrOption)
+	}
+	if c.Dim != 2 && c.Dim != 3 {
+		return Result{}, fmt.Errorf("%w: surface %q has dimension %d, want 2 or 3", ErrCut, c.Spec, c.Dim)
+	}
+	if err := opt.check(); err != nil {
+		return Result{}, err
+	}
+	axes, hasWind, err := windAxes(opt.Free.V, opt.Up, c.Dim)
+	if err != nil {
+		return Result{}, err
+	}
+	total, err := integrate(c, flow, &opt)
+	if err != nil {
+		return Result{}, err
+	}
+
+	r := Result{Spec: c.Spec, Dim: c.Dim, MomentCenter: opt.MomentCenter}
+	switch {
+	case opt.NoConvection:
+		r.Form = "no-convection"
+	case opt.Plain:
+		r.Form = "plain"
+	default:
+		r.Form = "deficit"
+	}
+	for k := 0; k < 3; k++ {
+		r.Terms.Momentum[k] = total[sMom+k].value()
+		r.Terms.Pressure[k] = total[sPrs+k].value()
+		r.Terms.Viscous[k] = total[sVis+k].value()
+		r.Terms.Reynolds[k] = total[sRey+k].value()
+		r.MomentTerms.Momentum[k] = total[sMom2+sMom+k].value()
+		r.MomentTerms.Pressure[k] = total[sMom2+sPrs+k].value()
+		r.MomentTerms.Viscous[k] = total[sMom2+sVis+k].value()
+		r.MomentTerms.Reynolds[k] = total[sMom2+sRey+k].value()
+	}
+	r.Force = r.Terms.Sum()
+	r.Moment = r.MomentTerms.Sum()
+	r.MassFlux = total[sMass].value()
+	r.MassAbs = total[sAbs].value()
+	if r.MassAbs > 0 {
+		r.MassImbalance = r.MassFlux / r.MassAbs
+	}
+	r.Facets, r.Pieces, r.Points = c.Facets, len(c.Pieces), len(c.Points)
+	r.Area, r.ExactArea, r.Closure = c.Area, c.ExactArea, c.Closure
+	if c.ExactArea != 0 {
+		r.AreaError = (c.Area - c.ExactArea) / c.ExactArea
+	}
+	r.HasWind, r.Axes = hasWind, axes
+	applyWind(&r, &opt)
+	return r, nil
+}
+
+// integrate sums the integrands over all quadrature points of c in fixed
+// chunks, in parallel, and combines the chunk sums in chunk order.
+func integrate(c *surface.Cut, flow field.FlowEvaluator, opt *Options) (sums, error) {
+	n := len(c.Points)
+	nChunks := (n + ChunkSize - 1) / ChunkSize
+	partial := make([]sums, nChunks)
+	errs := make([]error, nChunks)
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	workers = max(1, min(workers, nChunks))
+	var next atomic.Int64
+	var failed atomic.Bool
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			var st field.FlowState
+			// Chunks are claimed in increasing order and each claimed
+			// chunk is finished, so the lowest failing chunk is always
+			// found whatever the scheduling.
+			for !failed.Load() {
+				k := int(next.Add(1) - 1)
+				if k >= nChunks {
+					return
+				}
+				lo, hi := k*ChunkSize, min((k+1)*ChunkSize, n)
+				if err := sumChunk(c, flow, opt, lo, hi, &st, &partial[k]); err != nil {
+					errs[k] = err
+					failed.Store(true)
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	var total sums
+	for k := range partial {
+		if errs[k] != nil {
+			return total, errs[k]
+		}
+		for i := range total {
+			total[i].merge(partial[k][i])
+		}
+	}
+	return total, nil
+}
+
+// sumChunk adds the integrands of points lo..hi-1 to acc.
+func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int, st *field.FlowState, acc *sums) error {
+	vinf := opt.Free.V
+	if opt.Plain {
+		vinf = Vec3{}
+	}
+	for i := lo; i < hi; i++ {
+		q := &c.Points[i]
+		if !finite(q.W) || !finiteVec(q.X) || !finiteVec(q.N) {
+			return fmt.Errorf("%w: surface %q: quadrature point %d has non-finite position, weight or normal", ErrCut, c.Spec, i)
+		}
+		flow.EvalFlow(q.At, q.X, st)
+		if name, v, ok := checkState(st); !ok {
+			return &ValueError{Spec: c.Spec, Point: i, X: q.X, Cell: q.At.Ref(), Quantity: name, Value: v}
+		}
+		r := sub(q.X, opt.MomentCenter)
+		if c.Dim == 2 {
+			r[2] = 0
+		}
+		w, n := q.W, q.N
+		vn := dot(st.V, n)
+		acc[sMass].add(st.Rho * vn * w)
+		acc[sAbs].add(st.Rho * math.Abs(vn) * w)
+
+		var mom, momPlain, prs, vis, rey Vec3
+		if !opt.NoConvection {
+			f := -st.Rho * vn * w
+			for k := 0; k < 3; k++ {
+				mom[k] = f * (st.V[k] - vinf[k])
+				momPlain[k] = f * st.V[k]
+			}
+		}
+		dp := -(st.P - opt.Free.P) * w
+		mu := st.Mu + st.MuT
+		g := &st.GradV
+		div := g[0][0] + g[1][1] + g[2][2]
+		for k := 0; k < 3; k++ {
+			prs[k] = dp * n[k]
+			var t float64
+			for j := 0; j < 3; j++ {
+				t += (g[k][j] + g[j][k]) * n[j]
+			}
+			vis[k] = mu * (t - 2.0/3.0*div*n[k]) * w
+			if st.HasR {
+				rey[k] = -(st.R[k][0]*n[0] + st.R[k][1]*n[1] + st.R[k][2]*n[2]) * w
+			}
+		}
+		for k := 0; k < 3; k++ {
+			acc[sMom+k].add(mom[k])
+			acc[sPrs+k].add(prs[k])
+			acc[sVis+k].add(vis[k])
+			acc[sRey+k].add(rey[k])
+		}
+		for t, v := range [4]Vec3{cross(r, momPlain), cross(r, prs), cross(r, vis), cross(r, rey)} {
+			for k := 0; k < 3; k++ {
+				acc[sMom2+3*t+k].add(v[k])
+			}
+		}
+	}
+	return nil
+}
+
+// checkState reports the first non-finite quantity of s.
+func checkState(s *field.FlowState) (string, float64, bool) {
+	for _, q := range [...]struct {
+		name string
+		v    float64
+	}{{"density", s.Rho}, {"pressure", s.P}, {"viscosity", s.Mu}, {"eddy viscosity", s.MuT}} {
+		if !finite(q.v) {
+			return q.name, q.v, false
+		}
+	}
+	if !finiteVec(s.V) {
+		return "velocity", firstBad(s.V[:]), false
+	}
+	for i := range s.GradV {
+		if !finiteVec(s.GradV[i]) {
+			return "velocity gradient", firstBad(s.GradV[i][:]), false
+		}
+		if s.HasR && !finiteVec(s.R[i]) {
+			return "Reynolds stress", firstBad(s.R[i][:]), false
+		}
+	}
+	return "", 0, true
+}
+
+func firstBad(v []float64) float64 {
+	for _, x := range v {
+		if !finite(x) {
+			return x
+		}
+	}
+	return 0
+}
+
+func finiteVec(v Vec3) bool { return finite(v[0]) && finite(v[1]) && finite(v[2]) }
+
+func dot(a, b Vec3) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }
+
+func sub(a, b Vec3) Vec3 { return Vec3{a[0] - b[0], a[1] - b[1], a[2] - b[2]} }
+
+func cross(a, b Vec3) Vec3 {
+	return Vec3{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
+}
