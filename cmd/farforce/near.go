@@ -1,0 +1,304 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"strings"
+
+	"github.com/spf13/pflag"
+
+	"farforce/field"
+	"farforce/integrate"
+	"farforce/readers"
+	"farforce/surface"
+)
+
+// nearFlags select the near-field (body surface) force that wall, forces,
+// sweep and check compare against: a wall surface file, or the boundary of
+// the volume mesh inside a given surface.
+type nearFlags struct {
+	wall         string // wall surface file
+	pressure     string // its pressure array
+	pressureCoef bool   // the pressure array holds C_p
+	shear        string // its wall-shear traction array
+	skinFriction string // or its skin-friction coefficient array
+	insidePoint  string // a point inside the body, for open walls
+	inside       string // surface spec enclosing the body's boundary faces
+}
+
+// define registers the near-field flags on fs.
+func (n *nearFlags) define(fs *pflag.FlagSet) {
+	fs.StringVar(&n.wall, "wall", "", "near field from the wall surface `FILE` (VTK POLYDATA: polygons in 3D, lines in 2D)")
+	fs.StringVar(&n.pressure, "wall-pressure", "", "pressure array `NAME` of the wall file (Pa; default: guessed)")
+	fs.BoolVar(&n.pressureCoef, "wall-pressure-coefficient", false, "the wall pressure array holds C_p = (p - p∞)/q∞")
+	fs.StringVar(&n.shear, "wall-shear", "", "wall shear traction array `NAME` τ·n, n out of the body (Pa; default: guessed)")
+	fs.StringVar(&n.skinFriction, "skin-friction", "", "skin-friction coefficient vector array `NAME` (τ·n/q∞) instead of --wall-shear")
+	fs.StringVar(&n.insidePoint, "wall-inside-point", "", "a point `X,Y,Z` inside the body, to orient a wall that is not closed")
+	fs.StringVar(&n.inside, "inside", "", "near field from the volume mesh: its boundary faces enclosed by the surface `SPEC`")
+}
+
+// given reports whether a near-field source was selected.
+func (n *nearFlags) given() bool { return n.wall != "" || n.inside != "" }
+
+// check validates the near-field flags that need no data.
+func (n *nearFlags) check() error {
+	if n.wall != "" && n.inside != "" {
+		return errors.New("give either --wall FILE or --inside SPEC for the near field, not both")
+	}
+	if n.wall == "" && (n.pressure != "" || n.shear != "" || n.skinFriction != "" || n.pressureCoef || n.insidePoint != "") {
+		return errors.New("--wall-pressure, --wall-shear, --skin-friction, --wall-pressure-coefficient and --wall-inside-point need --wall FILE")
+	}
+	if n.shear != "" && n.skinFriction != "" {
+		return errors.New("give either --wall-shear or --skin-friction, not both")
+	}
+	if n.insidePoint != "" {
+		if _, err := parseVector("wall-inside-point", n.insidePoint, true); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// nearReport is a near-field force with where it came from. The embedded
+// integrate.NearResult gives the numbers (pressure, friction, force,
+// coefficients, ...).
+type nearReport struct {
+	// Source is "wall file" or "volume mesh".
+	Source string `json:"source"`
+	File   string `json:"file,omitempty"`
+	Inside string `json:"inside,omitempty"`
+	// Arrays are the wall file's arrays used (pressure, shear or
+	// skin_friction).
+	Arrays map[string]string `json:"arrays,omitempty"`
+	Notes  []string          `json:"notes"`
+	integrate.NearResult
+}
+
+// Array names tried, in order, when the wall arrays are not given
+// (case-insensitive).
+var (
+	wallPressureNames = []string{"pressure", "p", "static_pressure"}
+	wallCpNames       = []string{"cp", "pressure_coefficient"}
+	wallShearNames    = []string{"wall_shear_stress", "wallshearstress", "wall_shear", "tau_w", "wss", "traction"}
+	wallCfNames       = []string{"cf", "skin_friction", "skin_friction_coefficient", "skinfriction"}
+)
+
+// findArray returns the name of the first array of z matching one of
+// names, case-insensitively.
+func findArray(z *field.Zone, names []string) string {
+	for _, want := range names {
+		for _, a := range z.Arrays {
+			if strings.EqualFold(a.Name, want) {
+				return a.Name
+			}
+		}
+	}
+	return ""
+}
+
+// wallOptions returns the wall arrays to integrate from the flags, guessing
+// the ones not given from the array names of z; notes say what was
+// guessed.
+func (n *nearFlags) wallOptions(z *field.Zone) (integrate.WallOptions, []string, error) {
+	w := integrate.WallOptions{Pressure: n.pressure, PressureCoefficient: n.pressureCoef, Traction: n.shear, SkinFriction: n.skinFriction}
+	var notes []string
+	if n.insidePoint != "" {
+		p, _ := parseVector("wall-inside-point", n.insidePoint, true)
+		w.Inside = &p
+	}
+	if w.Pressure == "" {
+		if w.Pressure = findArray(z, wallPressureNames); w.Pressure == "" {
+			if w.Pressure = findArray(z, wallCpNames); w.Pressure != "" {
+				w.PressureCoefficient = true
+			}
+		}
+		if w.Pressure != "" {
+			what := "pressure"
+			if w.PressureCoefficient {
+				what = "pressure coefficient"
+			}
+			notes = append(notes, fmt.Sprintf("wall %s: array %q (guessed; --wall-pressure overrides)", what, w.Pressure))
+		}
+	}
+	if w.Traction == "" && w.SkinFriction == "" {
+		if w.Traction = findArray(z, wallShearNames); w.Traction != "" {
+			notes = append(notes, fmt.Sprintf("wall shear traction: array %q (guessed; --wall-shear overrides)", w.Traction))
+		} else if w.SkinFriction = findArray(z, wallCfNames); w.SkinFriction != "" {
+			notes = append(notes, fmt.Sprintf("skin friction coefficient: array %q (guessed; --skin-friction overrides)", w.SkinFriction))
+		}
+	}
+	if w.Pressure == "" && w.Traction == "" && w.SkinFriction == "" {
+		var names []string
+		for _, a := range z.Arrays {
+			names = append(names, a.Name)
+		}
+		return w, nil, fmt.Errorf("wall file: no pressure or wall-shear array found among [%s]: name them with --wall-pressure and --wall-shear (or --skin-friction)", strings.Join(names, ", "))
+	}
+	if w.Pressure == "" {
+		notes = append(notes, "no pressure array: the near field holds friction only")
+	}
+	if w.Traction == "" && w.SkinFriction == "" {
+		notes = append(notes, "no wall-shear or skin-friction array: the near field holds pressure only")
+	}
+	return w, notes, nil
+}
+
+// fromWall integrates the wall file with the integration options opt.
+func (n *nearFlags) fromWall(opt integrate.Options) (*nearReport, error) {
+	f, err := loadField([]string{n.wall}, readers.Options{Workers: opt.Workers})
+	if err != nil {
+		return nil, err
+	}
+	if len(f.Zones) != 1 {
+		return nil, inputErr(fmt.Errorf("wall file %s holds %d zones, want one surface", n.wall, len(f.Zones)))
+	}
+	z := f.Zones[0]
+	w, notes, err := n.wallOptions(z)
+	if err != nil {
+		return nil, inputErr(fmt.Errorf("%s: %w", n.wall, err))
+	}
+	res, err := integrate.NearField(z, w, opt)
+	if err != nil {
+		return nil, inputErr(fmt.Errorf("wall file %s: %w", n.wall, err))
+	}
+	arrays := map[string]string{}
+	for k, v := range map[string]string{"pressure": w.Pressure, "shear": w.Traction, "skin_friction": w.SkinFriction} {
+		if v != "" {
+			arrays[k] = v
+		}
+	}
+	if res.Open > 0 {
+		notes = append(notes, fmt.Sprintf("%d of %d wall parts are not closed: oriented away from %s", res.Open, res.Parts, insideText(w.Inside)))
+	}
+	return &nearReport{Source: "wall file", File: n.wall, Arrays: arrays, Notes: notes, NearResult: res}, nil
+}
+
+func insideText(p *[3]float64) string {
+	if p == nil {
+		return "each open part's centroid (give --wall-inside-point to choose)"
+	}
+	return vec(*p)
+}
+
+// fromVolume integrates p and τ of the prepared volume field over its
+// boundary faces enclosed by the --inside surface.
+func (n *nearFlags) fromVolume(p *preparedFlow) (*nearReport, error) {
+	s, err := parseShape("farforce", n.inside)
+	if err != nil {
+		return nil, err
+	}
+	f := p.loc.Field()
+	in, err := newInsideTest(s, f, p.loc.Dim())
+	if err != nil {
+		return nil, inputErr(fmt.Errorf("--inside %q: %w", n.inside, err))
+	}
+	faces, err := field.BoundaryFaces(f, in)
+	if err != nil {
+		return nil, inputErr(err)
+	}
+	if len(faces) == 0 {
+		return nil, inputErr(fmt.Errorf("--inside %q encloses no boundary face of the mesh: it must surround the body's wall and no other boundary", n.inside))
+	}
+	res, err := integrate.NearFieldVolume(p.loc, p.flow, faces, p.opt)
+	if err != nil {
+		return nil, inputErr(fmt.Errorf("near field on the mesh boundary inside %q: %w", n.inside, err))
+	}
+	notes := []string{fmt.Sprintf("%d boundary faces inside %s; p and τ from the adjacent cells (one-sided gradients)", len(faces), s)}
+	return &nearReport{Source: "volume mesh", Inside: s.String(), Notes: notes, NearResult: res}, nil
+}
+
+// compute returns the selected near field for the prepared volume field p
+// (nil when none was selected).
+func (n *nearFlags) compute(p *preparedFlow) (*nearReport, error) {
+	switch {
+	case n.wall != "":
+		return n.fromWall(p.opt)
+	case n.inside != "":
+		return n.fromVolume(p)
+	}
+	return nil, nil
+}
+
+// insideTest tells whether a point lies inside a closed shape, by the
+// winding number of the shape's tessellation about the point: the sum of
+// the angles (2D) or solid angles (3D) its facets subtend, over 2π (4π),
+// is 1 inside and 0 outside. Points farther out than the facets' bounding
+// box are outside at once.
+type insideTest struct {
+	f      *surface.Facets
+	lo, hi [3]float64
+}
+
+// insideFacets is the facet count of the tessellation used by the inside
+// test when the spec does not fix one: fine enough that the polygonal
+// shape differs from a circle or sphere by well under a cell near a body.
+const insideFacets2D, insideFacets3D = 2048, 8192
+
+// newInsideTest tessellates s for the inside test on field f of dimension
+// dim.
+func newInsideTest(s surface.Shape, f *field.Field, dim int) (func(p [3]float64) bool, error) {
+	if s.Dim() != dim {
+		return nil, fmt.Errorf("the shape is %dD but the field is %dD", s.Dim(), dim)
+	}
+	area := s.ExactArea()
+	h := area / insideFacets2D
+	if dim == 3 {
+		h = math.Sqrt(area / (0.43 * insideFacets3D)) // a triangle of edge h covers ≈ 0.43 h²
+	}
+	z0 := 0.0
+	if dim == 2 && f.NumPoints() > 0 {
+		z0 = f.Zones[0].Points[2]
+	}
+	facets, err := s.Tessellate(func([3]float64) float64 { return h }, z0)
+	if err != nil {
+		return nil, err
+	}
+	t := &insideTest{f: facets}
+	t.lo, t.hi = facets.Verts[0], facets.Verts[0]
+	for _, v := range facets.Verts {
+		for k := 0; k < 3; k++ {
+			t.lo[k], t.hi[k] = min(t.lo[k], v[k]), max(t.hi[k], v[k])
+		}
+	}
+	return t.contains, nil
+}
+
+// contains reports whether p is inside (winding number above ½).
+func (t *insideTest) contains(p [3]float64) bool {
+	for k := 0; k < t.f.Dim; k++ {
+		if p[k] < t.lo[k] || p[k] > t.hi[k] {
+			return false
+		}
+	}
+	sum := 0.0
+	for i := 0; i < t.f.Len(); i++ {
+		v := t.f.Facet(i)
+		if t.f.Dim == 2 {
+			ax, ay := v[0][0]-p[0], v[0][1]-p[1]
+			bx, by := v[1][0]-p[0], v[1][1]-p[1]
+			sum += math.Atan2(ax*by-ay*bx, ax*bx+ay*by)
+			continue
+		}
+		sum += solidAngle(sub3(v[0], p), sub3(v[1], p), sub3(v[2], p))
+	}
+	full := 2 * math.Pi
+	if t.f.Dim == 3 {
+		full = 4 * math.Pi
+	}
+	w := sum / full
+	return w > 0.5 || w < -0.5
+}
+
+func sub3(a, b [3]float64) [3]float64 { return [3]float64{a[0] - b[0], a[1] - b[1], a[2] - b[2]} }
+
+// solidAngle is the signed solid angle of the triangle (a, b, c) seen from
+// the origin (Van Oosterom & Strackee 1983, IEEE Trans. Biomed. Eng.
+// 30(2):125-126):
+// tan(Ω/2) = a·(b×c) / (|a||b||c| + (a·b)|c| + (a·c)|b| + (b·c)|a|).
+func solidAngle(a, b, c [3]float64) float64 {
+	la, lb, lc := math.Sqrt(dot(a, a)), math.Sqrt(dot(b, b)), math.Sqrt(dot(c, c))
+	num := a[0]*(b[1]*c[2]-b[2]*c[1]) + a[1]*(b[2]*c[0]-b[0]*c[2]) + a[2]*(b[0]*c[1]-b[1]*c[0])
+	den := la*lb*lc + dot(a, b)*lc + dot(a, c)*lb + dot(b, c)*la
+	return 2 * math.Atan2(num, den)
+}
