@@ -54,6 +54,7 @@ type forcesImpl struct {
 	fs       *pflag.FlagSet
 	surfaces []string
 	flow     flowFlags
+	near     nearFlags
 	json     bool
 	csv      bool
 	writeSur string
@@ -63,6 +64,7 @@ func (c *forcesImpl) define(fs *pflag.FlagSet) {
 	c.fs = fs
 	fs.StringArrayVar(&c.surfaces, "surface", nil, "control surface `SPEC` (repeatable; see above)")
 	c.flow.define(fs)
+	c.near.define(fs)
 	fs.BoolVar(&c.json, "json", false, "print the report as JSON (schema "+forcesSchema+")")
 	fs.BoolVar(&c.csv, "csv", false, "print one CSV row per surface")
 	fs.StringVar(&c.writeSur, "write-surface", "", "write the cut surface(s) as legacy VTK POLYDATA to `FILE` (surface k>1 goes to FILE with -k before the extension)")
@@ -80,6 +82,9 @@ func (c *forcesImpl) run(e *env, args []string) error {
 		return usageErr(cmd, "forces: --json and --csv exclude each other")
 	}
 	if err := c.flow.check(c.fs); err != nil {
+		return usageErr(cmd, "%v", err)
+	}
+	if err := c.near.check(); err != nil {
 		return usageErr(cmd, "%v", err)
 	}
 	shapes := make([]surface.Shape, len(c.surfaces))
@@ -117,6 +122,9 @@ func (c *forcesImpl) run(e *env, args []string) error {
 				return err
 			}
 		}
+	}
+	if c.near.given() {
+		return c.near.printForcesWithNear(e, p, rep, c.json, c.csv)
 	}
 	switch {
 	case c.json:

@@ -184,7 +184,10 @@ func insideText(p *[3]float64) string {
 // fromVolume integrates p and τ of the prepared volume field over its
 // boundary faces enclosed by the --inside surface.
 func (n *nearFlags) fromVolume(p *preparedFlow) (*nearReport, error) {
-	s, err := parseShape("farforce", n.inside)
+	if _, err := surface.ParseSpec(n.inside); err != nil {
+		return nil, usageErr("farforce", "--inside %q: %v", n.inside, err)
+	}
+	s, err := parseShape("farforce", n.inside) // loads a file surface
 	if err != nil {
 		return nil, err
 	}

@@ -54,6 +54,9 @@ func sweepChart(s *sweepResult, near *nearReport, dim int) *svgplot.Chart {
 		Series: []svgplot.Series{{Name: "far field, per member", X: xs, Y: ls}},
 		Bands:  []svgplot.Band{{X0: p.FirstScale, X1: p.LastScale, Y0: p.Lift - p.LiftSpread, Y1: p.Lift + p.LiftSpread, Label: "plateau"}},
 	}
+	// Show at least the agreement band of the verdict, so that drag or
+	// lift equal to rounding (a non-lifting body) plots flat.
+	drag.MinSpan, lift.MinSpan = 2*s.Verdict.Band, 2*s.Verdict.Band
 	if near != nil {
 		nd, nl := near.Wind.Drag, near.Wind.Lift
 		if s.coefficients() {

@@ -67,7 +67,7 @@ func (c *sweepImpl) define(fs *pflag.FlagSet) {
 	fs.StringVar(&c.surface, "surface", "", "the control surface `SPEC` to scale (see 'farforce forces --help')")
 	fs.StringVar(&c.scales, "scales", "", "scale factors `LIST`: 1,1.25,1.5 or A:B:N (N factors from A to B)")
 	fs.Float64Var(&c.agreeRel, "agree-rel", integrate.DefaultSweepRelTol, "members agree when within this `FRACTION` of the force")
-	fs.Float64Var(&c.agreeAbs, "agree-abs", integrate.DefaultSweepAbsTol, "... or within this absolute `BAND` (coefficient units; force units without coefficients)")
+	fs.Float64Var(&c.agreeAbs, "agree-abs", integrate.DefaultSweepAbsTol, "... or within this absolute `BAND` (coefficient units; force units without coefficients, where only the relative band applies unless this is given)")
 	c.flow.define(fs)
 	c.near.define(fs)
 	fs.BoolVar(&c.json, "json", false, "print the report as JSON (schema "+sweepSchema+")")
@@ -124,7 +124,10 @@ func (c *sweepImpl) run(e *env, args []string) error {
 		}
 		prog.done()
 	}
-	spec := sweepSpec{Base: base, Scales: scales, Verdict: integrate.VerdictOptions{RelTol: c.agreeRel, AbsTol: c.agreeAbs}}
+	spec := sweepSpec{Base: base, Scales: scales, Verdict: integrate.VerdictOptions{RelTol: c.agreeRel}}
+	if c.fs.Changed("agree-abs") {
+		spec.Verdict.AbsTol = c.agreeAbs
+	}
 	sw, err := runSweep(prog, p, spec, near)
 	if err != nil {
 		return err
@@ -184,7 +187,11 @@ func parseScales(s string) ([]float64, error) {
 			return nil, fmt.Errorf("%q: N = %q, want a whole number from 2 to %d", s, parts[2], maxScales)
 		}
 		for i := 0; i < n; i++ {
-			out = append(out, a+(b-a)*float64(i)/float64(n-1))
+			// Rounded to 12 digits so that 0.8:1.6:5 gives 1.2, not
+			// 1.2000000000000002, in reports and surface specs.
+			x := a + (b-a)*float64(i)/float64(n-1)
+			x, _ = strconv.ParseFloat(strconv.FormatFloat(x, 'g', 12, 64), 64)
+			out = append(out, x)
 		}
 		out[n-1] = b
 	} else {
@@ -210,7 +217,9 @@ func parseScales(s string) ([]float64, error) {
 }
 
 // sweepSpec is one sweep to run: the base surface, its scale factors and
-// the agreement band of the verdict.
+// the agreement band of the verdict (zero fields: the defaults of
+// integrate.VerdictOptions, except that without coefficients a zero AbsTol
+// leaves the relative band alone).
 type sweepSpec struct {
 	Name    string
 	Base    surface.Shape
@@ -289,9 +298,9 @@ func runSweep(prog *progress, p *preparedFlow, spec sweepSpec, near *nearReport)
 	vopt := spec.Verdict
 	if sw.Members[0].HasCoefficients {
 		sw.Quantity = "coefficients"
-	} else if vopt.AbsTol == integrate.DefaultSweepAbsTol || vopt.AbsTol == 0 {
+	} else if vopt.AbsTol == 0 {
 		// The default band of one drag count has no meaning for forces:
-		// keep the relative band alone.
+		// keep the relative band alone unless a band was given.
 		vopt.AbsTol = math.SmallestNonzeroFloat64
 	}
 	v, err := integrate.Verdict(members, vopt)
@@ -316,7 +325,7 @@ func comparePlateau(sw *sweepResult, near *nearReport) *plateauNear {
 	if sw.coefficients() {
 		d.DragCounts = 1e4 * d.Drag
 	}
-	if nd != 0 {
+	if percentMeaningful(near) {
 		d.DragPercent = 100 * d.Drag / math.Abs(nd)
 	}
 	return d

@@ -1,8 +1,6 @@
 package main
 
 import (
-	"bytes"
-	"encoding/csv"
 	"fmt"
 	"io"
 	"strconv"
@@ -86,7 +84,7 @@ func writeSweepBody(w io.Writer, s *sweepResult, near *nearReport) {
 			row = append(row, fixed(m.DragCounts, 1))
 		}
 		if m.NearFar != nil {
-			row = append(row, fixed(m.NearFar.DragPercent, 2))
+			row = append(row, pct(m.NearFar.DragPercent, near))
 			if coef {
 				row = append(row, fixed(m.NearFar.DragCounts, 1))
 			}
@@ -95,7 +93,7 @@ func writeSweepBody(w io.Writer, s *sweepResult, near *nearReport) {
 	}
 	t.write(w)
 	fmt.Fprintln(w, "  (* plateau members)")
-	writeVerdictText(w, s, f)
+	writeVerdictText(w, s, near, f)
 }
 
 // dimOf returns the dimension of the sweep's surfaces.
@@ -115,8 +113,9 @@ func memberValues(s *sweepResult, m *sweepMember) (drag, lift float64) {
 }
 
 // writeVerdictText prints the plateau, drift, mass trend, near-field
-// comparison and the notes of a sweep; f formats drag and lift values.
-func writeVerdictText(w io.Writer, s *sweepResult, f func(float64) string) {
+// comparison with near (nil: none) and the notes of a sweep; f formats
+// drag and lift values.
+func writeVerdictText(w io.Writer, s *sweepResult, near *nearReport, f func(float64) string) {
 	v, p, d := &s.Verdict, &s.Plateau, &s.Drift
 	what := "drag"
 	if s.coefficients() {
@@ -144,9 +143,9 @@ func writeVerdictText(w io.Writer, s *sweepResult, f func(float64) string) {
 	if s.NearFar != nil {
 		if s.coefficients() {
 			t.add("plateau - near field", fmt.Sprintf("ΔC_D %s (%s counts, %s %%), ΔC_L %s",
-				fixed(s.NearFar.Drag, 6), fixed(s.NearFar.DragCounts, 1), fixed(s.NearFar.DragPercent, 2), fixed(s.NearFar.Lift, 6)))
+				fixed(s.NearFar.Drag, 6), fixed(s.NearFar.DragCounts, 1), pct(s.NearFar.DragPercent, near), fixed(s.NearFar.Lift, 6)))
 		} else {
-			t.add("plateau - near field", fmt.Sprintf("Δdrag %s (%s %%), Δlift %s", num(s.NearFar.Drag), fixed(s.NearFar.DragPercent, 2), num(s.NearFar.Lift)))
+			t.add("plateau - near field", fmt.Sprintf("Δdrag %s (%s %%), Δlift %s", num(s.NearFar.Drag), pct(s.NearFar.DragPercent, near), num(s.NearFar.Lift)))
 		}
 	}
 	t.write(w)
@@ -192,29 +191,9 @@ func writeSweepCSV(w io.Writer, r *sweepReport) error {
 	for _, m := range r.Members {
 		fr.Surfaces = append(fr.Surfaces, m.Result)
 	}
-	var buf bytes.Buffer
-	writeForcesCSV(&buf, fr)
-	rows, err := csv.NewReader(&buf).ReadAll()
-	if err != nil {
-		return err
+	scale := func(i int) []string { return []string{strconv.FormatFloat(r.Members[i].Scale, 'g', -1, 64)} }
+	if r.Near == nil {
+		return writeForcesCSVWith(w, fr, []string{"scale"}, scale, nil, nil)
 	}
-	g := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
-	cw := csv.NewWriter(w)
-	for i, row := range rows {
-		out := append([]string{"scale"}, row...)
-		if i > 0 {
-			m := r.Members[i-1]
-			out[0] = g(m.Scale)
-			if m.NearFar != nil {
-				out = append(out, g(m.NearFar.Wind.Drag), g(m.NearFar.Wind.Lift), g(m.NearFar.DragCounts), g(m.NearFar.DragPercent))
-			}
-		} else if r.Near != nil {
-			out = append(out, "near_diff_drag", "near_diff_lift", "near_diff_counts", "near_diff_percent")
-		}
-		if err := cw.Write(out); err != nil {
-			return err
-		}
-	}
-	cw.Flush()
-	return cw.Error()
+	return writeForcesCSVWith(w, fr, []string{"scale"}, scale, nearDiffHeader, func(i int) []string { return nearDiffCells(r.Members[i].NearFar) })
 }

@@ -77,11 +77,11 @@ type wallReport struct {
 
 func (c *wallImpl) run(e *env, args []string) error {
 	const cmd = "farforce wall"
-	if !c.near.given() {
-		return usageErr(cmd, "wall: give --wall FILE, or the volume FILE... with --inside SPEC")
-	}
 	if err := c.near.check(); err != nil {
 		return usageErr(cmd, "%v", err)
+	}
+	if !c.near.given() {
+		return usageErr(cmd, "wall: give --wall FILE, or the volume FILE... with --inside SPEC")
 	}
 	if c.near.wall != "" && len(args) > 0 {
 		return usageErr(cmd, "wall: --wall FILE takes no volume files (got %q); use --inside SPEC to take the wall from a volume mesh", args[0])
@@ -182,15 +182,16 @@ func (n *nearFlags) wallOnly(fs *pflag.FlagSet, fl *flowFlags) (*nearReport, set
 
 // wallOptions builds the integration options of a wall file integrated
 // without a volume field (dimension dim): the freestream, up axis, moment
-// centre and references of the flags; the density is --freestream-density
-// or the --density constant. It mirrors the option part of
-// flowFlags.prepare, which needs the volume field.
+// centre and references of the flags (already checked, which parses the
+// vectors); the density is --freestream-density or the --density
+// constant. It mirrors the option part of flowFlags.prepare, which needs
+// the volume field.
 func (fl *flowFlags) wallOptions(fs *pflag.FlagSet, dim int) (integrate.Options, error) {
 	opt := integrate.Options{RefArea: fl.refArea, RefLength: fl.refLength, Workers: fl.workers}
 	opt.Free.P = fl.freePressure
 	var err error
 	if fl.freeVelocity != "" {
-		opt.Free.V, _ = parseVector("freestream-velocity", fl.freeVelocity, false)
+		opt.Free.V = fl.freeV
 	} else if opt.Free.V, err = integrate.FreestreamFromAngles(fl.speed, fl.alpha, fl.beta, dim); err != nil {
 		return opt, err
 	}
@@ -207,9 +208,9 @@ func (fl *flowFlags) wallOptions(fs *pflag.FlagSet, dim int) (integrate.Options,
 		return opt, fmt.Errorf("give --freestream-density (or a constant --density) for the dynamic pressure")
 	}
 	if fl.up != "" {
-		opt.Up, _ = parseVector("up", fl.up, false)
+		opt.Up = fl.upV
 	}
-	opt.MomentCenter, _ = parseVector("moment-center", fl.momentCenter, false)
+	opt.MomentCenter = fl.centerV
 	return opt, nil
 }
 

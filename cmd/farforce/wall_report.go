@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"math"
 	"sort"
 	"strings"
 
@@ -121,13 +122,29 @@ func writeNearText(w io.Writer, n *nearReport) {
 	fmt.Fprintf(w, "  drag counts %s\n", fixed(n.DragCounts, 1))
 }
 
+// pct formats a drag difference in percent of the near-field drag, or
+// "n/a" when there is no percentage to give (see percentMeaningful).
+func pct(p float64, near *nearReport) string {
+	if !percentMeaningful(near) {
+		return "n/a"
+	}
+	return fixed(p, 2)
+}
+
+// percentMeaningful reports whether a percentage of the near-field drag
+// means something: not when the drag is zero to rounding (below 1e-9 of
+// the force: a body whose force is all lift).
+func percentMeaningful(near *nearReport) bool {
+	return near != nil && math.Abs(near.Wind.Drag) > 1e-9*norm(near.Force)
+}
+
 // writeNearFarText prints far minus near for one far-field value.
-func writeNearFarText(w io.Writer, label string, d integrate.NearFarDifference, coef bool) {
+func writeNearFarText(w io.Writer, label string, d integrate.NearFarDifference, near *nearReport, coef bool) {
 	if coef {
 		fmt.Fprintf(w, "  far - near (%s): ΔC_D %s (%s counts, %s %% of the near-field drag), ΔC_L %s\n",
-			label, fixed(d.Coefficients.Drag, 6), fixed(d.DragCounts, 1), fixed(d.DragPercent, 2), fixed(d.Coefficients.Lift, 6))
+			label, fixed(d.Coefficients.Drag, 6), fixed(d.DragCounts, 1), pct(d.DragPercent, near), fixed(d.Coefficients.Lift, 6))
 		return
 	}
 	fmt.Fprintf(w, "  far - near (%s): Δdrag %s, Δlift %s (%s %% of the near-field drag)\n",
-		label, num(d.Wind.Drag), num(d.Wind.Lift), fixed(d.DragPercent, 2))
+		label, num(d.Wind.Drag), num(d.Wind.Lift), pct(d.DragPercent, near))
 }

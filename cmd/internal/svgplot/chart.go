@@ -28,12 +28,15 @@ type Chart struct {
 
 // Panel is one plot area: data series drawn as lines with markers,
 // horizontal reference lines and shaded bands, with YLabel beside the y
-// axis.
+// axis. MinSpan, when positive, is the least y range shown (centred on
+// the data), so that values equal to rounding plot as a flat line rather
+// than as magnified noise.
 type Panel struct {
-	YLabel string
-	Series []Series
-	Lines  []HLine
-	Bands  []Band
+	YLabel  string
+	Series  []Series
+	Lines   []HLine
+	Bands   []Band
+	MinSpan float64
 }
 
 // Series is a sequence of points joined by straight lines, with a marker
@@ -143,6 +146,9 @@ func (c *Chart) frames() (w, h int, fr []frame, err error) {
 		}
 		if ylo > yhi {
 			return 0, 0, nil, ErrEmpty
+		}
+		if d := p.MinSpan - (yhi - ylo); d > 0 {
+			ylo, yhi = ylo-d/2, yhi+d/2
 		}
 		ylo, yhi = pad(ylo, yhi)
 		yt := ticks(ylo, yhi, 6)

@@ -113,3 +113,15 @@ func TestTicks(t *testing.T) {
 		t.Errorf("format %q %q", f(1.2), f(2))
 	}
 }
+
+// TestMinSpan: rounding noise plots flat when the panel sets a least span.
+func TestMinSpan(t *testing.T) {
+	c := &Chart{Panels: []Panel{{Series: []Series{{X: []float64{1, 2, 3}, Y: []float64{1e-17, -2e-17, 3e-17}}}, MinSpan: 1e-4}}}
+	_, _, fr, err := c.frames()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if d := fr[0].y1 - fr[0].y0; d < 1e-4 {
+		t.Errorf("y range %g, want at least 1e-4", d)
+	}
+}

@@ -29,9 +29,13 @@ func (c *Chart) draw(cv canvas, w, h int, fr []frame) {
 		for k, b := range p.Bands {
 			x0, x1 := f.px(math.Max(b.X0, f.x0)), f.px(math.Min(b.X1, f.x1))
 			y0, y1 := f.py(math.Min(b.Y1, f.y1)), f.py(math.Max(b.Y0, f.y0))
-			if y1-y0 < 2 { // keep a band of zero width visible
+			if y1-y0 < 2 { // keep a band of zero height visible
 				m := (y0 + y1) / 2
 				y0, y1 = m-1, m+1
+			}
+			if x1-x0 < 8 { // and one of zero width (a single member)
+				m := (x0 + x1) / 2
+				x0, x1 = m-4, m+4
 			}
 			cv.rect(x0, y0, x1-x0, y1-y0, pick(b.Color, k+2), 0.25)
 		}
