@@ -224,3 +224,24 @@ func fitOrder(h, err []float64) float64 {
 	}
 	return (n*sxy - sx*sy) / (n*sxx - sx*sx)
 }
+
+// TestStokeslet2D: the fluid pushes on a 2D Stokeslet of strength f with
+// −f through every contour; on a circle the split is exactly half
+// pressure, half viscous (VALIDATION.md §3.3, visc2d.py: μ = 0.3,
+// f = (1.1, −0.4)). The circle is a polygon here, so the split is checked
+// on a fine 4096-gon (O(N⁻²) ≈ 1e-7) and the total to quadrature (1e-10)
+// on the polygon and on the rectangle [−0.5,2]×[−1,0.7].
+func TestStokeslet2D(t *testing.T) {
+	flow := fieldtest.Stokeslet2D{Mu: 0.3, F: [2]float64{1.1, -0.4}}
+	opt := Options{NoConvection: true}
+	want := Vec3{-1.1, 0.4, 0}
+	for _, c := range []*surface.Cut{circle(0, 0, 1, 4096, 4), rect(-0.5, 2, -1, 0.7, 0.02, 8)} {
+		r := mustForces(t, c, flow, opt)
+		if !closeVec(r.Force, want, 1e-10) {
+			t.Errorf("%s: force %v, want %v", c.Spec, r.Force, want)
+		}
+		if c.Spec == "circle" && (!closeVec(r.Terms.Pressure, scale(want, 0.5), 1e-6) || !closeVec(r.Terms.Viscous, scale(want, 0.5), 1e-6)) {
+			t.Errorf("circle: pressure %v viscous %v, want half of %v each", r.Terms.Pressure, r.Terms.Viscous, want)
+		}
+	}
+}

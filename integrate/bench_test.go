@@ -6,6 +6,7 @@ import (
 
 	"farforce/field"
 	"farforce/field/fieldtest"
+	"farforce/surface"
 )
 
 // BenchmarkForces integrates over a polyhedral sphere of 100 352 facets
@@ -43,4 +44,36 @@ func BenchmarkForces(b *testing.B) {
 		b.ReportMetric(float64(len(c.Points))*float64(b.N)/b.Elapsed().Seconds(), "points/s")
 		_ = sink
 	})
+}
+
+// BenchmarkForcesSampled integrates a Stokes field sampled at the points of
+// a hexahedral mesh (h = 0.1) over a box cut through it, after one warm-up
+// call that builds the sampler's lazily recovered gradients: the cost of
+// the integration with a real interpolating evaluator.
+func BenchmarkForcesSampled(b *testing.B) {
+	L := [3]float64{2, 1.5, 1.5}
+	loc, ev := sampledFlow(b, boxMesh(fieldtest.BoxHex, L, 0.1, [3]float64{}), stokesFlow(), field.AtPoints)
+	c, err := surface.CutSurface(loc, surface.Box{Min: sub(Vec3{}, L), Max: L}, surface.CutOptions{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	opt := stokesOpt()
+	if _, err := Forces(c, ev, opt); err != nil {
+		b.Fatal(err)
+	}
+	for _, w := range []int{1, 2} {
+		b.Run(fmt.Sprintf("workers=%d", w), func(b *testing.B) {
+			opt.Workers = w
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := Forces(c, ev, opt); err != nil {
+					b.Fatal(err)
+				}
+			}
+			s := b.Elapsed().Seconds()
+			b.ReportMetric(float64(len(c.Points))*float64(b.N)/s, "points/s")
+			b.ReportMetric(float64(c.Facets)*float64(b.N)/s, "facets/s")
+			b.ReportMetric(float64(c.Facets), "facets")
+		})
+	}
 }

@@ -29,8 +29,9 @@
 // blowing, porous bodies, sources), the deficit form is wrong and
 // Options.Plain must be set: for a plane source of flux m in a stream U the
 // plain form gives the correct (Lagally) force −ρUm and the deficit form 0.
-// The moment always uses the plain flux r × ρV(V·n): the V∞ substitution
-// does not cancel in the angular-momentum balance.
+// The moment always uses the plain flux r × ρV(V·n): replacing V by V − V∞
+// there would change it by ∫ρV × V∞ dV over the control volume (divergence
+// theorem, steady mass conservation), which does not vanish in general.
 //
 // Options.NoConvection drops the momentum flux altogether, for creeping
 // (Stokes) fields that do not satisfy the Navier–Stokes equations.
@@ -41,6 +42,20 @@
 // MassImbalance = ṁ / ∮ρ|V·n| dA, a signed fraction between −1 and 1 (0
 // when MassAbs is 0). VALIDATION.md §1.4 writes the quality figure as
 // ε_m = |ṁ| / (½∮ρ|V·n| dA) = 2|MassImbalance|.
+//
+// # Wind axes and coefficients
+//
+// Drag is along ê_D = V∞/|V∞|, lift along the unit vector ê_L ⊥ ê_D in the
+// plane of ê_D and Options.Up (default +z in 3D, +y in 2D), side along
+// ê_S = ê_L × ê_D, so that (ê_D, ê_S, ê_L) is right-handed; the triad is
+// returned in Result.Axes for reports to print. FreestreamFromAngles
+// builds V∞ from speed, angle of attack and sideslip. Coefficients are
+// C = F/(q∞ S_ref) with q∞ = ½ρ∞|V∞|² and S_ref = RefArea (3D) or
+// RefLength (2D, per unit span); moment coefficients divide by
+// q∞ S_ref L_ref; drag counts are 1e4·C_D. Missing (zero) reference
+// quantities are not an error: the coefficients are then zero and
+// Result.HasCoefficients / HasMomentCoefficients say so. Negative or
+// non-finite ones are errors (ErrOption).
 //
 // # Two dimensions
 //

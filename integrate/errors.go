@@ -15,6 +15,10 @@ var ErrOption = errors.New("invalid integration option")
 // non-finite quadrature data).
 var ErrCut = errors.New("invalid cut")
 
+// ErrOverflow is wrapped by the error returned when finite flow values
+// are so large that an integral overflows to ±Inf or NaN.
+var ErrOverflow = errors.New("force integral overflows")
+
 // ValueError reports a NaN or infinite flow value met at a quadrature
 // point: the surface, the point's index and position, the cell that holds
 // it and which quantity was bad.

@@ -40,10 +40,11 @@ type sums [nSums]neumaier
 // flow must be safe for concurrent use: it is called from opt.Workers
 // goroutines. The result is bit-identical for any number of workers.
 //
-// Errors: nil cut or flow, a cut dimension other than 2 or 3, invalid
-// options (ErrOption), non-finite quadrature data (ErrCut), and a NaN or
+// Errors: a nil, empty or non-finite cut or one of dimension other than 2
+// or 3 (ErrCut); a nil flow or invalid options (ErrOption); a NaN or
 // infinite flow value at a quadrature point (*ValueError naming the point,
-// its position and cell; the lowest such point index is reported).
+// its position and cell; the lowest such point index is reported); finite
+// values so large that an integral overflows (ErrOverflow).
 func Forces(c *surface.Cut, flow field.FlowEvaluator, opt Options) (Result, error) {
 	if c == nil {
 		return Result{}, fmt.Errorf("%w: nil cut", ErrCut)
@@ -53,6 +54,9 @@ func Forces(c *surface.Cut, flow field.FlowEvaluator, opt Options) (Result, erro
 	}
 	if c.Dim != 2 && c.Dim != 3 {
 		return Result{}, fmt.Errorf("%w: surface %q has dimension %d, want 2 or 3", ErrCut, c.Spec, c.Dim)
+	}
+	if len(c.Points) == 0 {
+		return Result{}, fmt.Errorf("%w: surface %q has no quadrature points", ErrCut, c.Spec)
 	}
 	if err := opt.check(); err != nil {
 		return Result{}, err
@@ -64,6 +68,11 @@ func Forces(c *surface.Cut, flow field.FlowEvaluator, opt Options) (Result, erro
 	total, err := integrate(c, flow, &opt)
 	if err != nil {
 		return Result{}, err
+	}
+	for i := range total {
+		if v := total[i].value(); !finite(v) {
+			return Result{}, fmt.Errorf("%w: surface %q: an integral is %g", ErrOverflow, c.Spec, v)
+		}
 	}
 
 	r := Result{Spec: c.Spec, Dim: c.Dim, MomentCenter: opt.MomentCenter}
@@ -159,8 +168,11 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 	}
 	for i := lo; i < hi; i++ {
 		q := &c.Points[i]
+		// Weights are not required to be positive: clipping can leave
+		// sliver pieces whose rule has weights of rounding size and
+		// either sign.
 		if !finite(q.W) || !finiteVec(q.X) || !finiteVec(q.N) {
-			return fmt.Errorf("%w: surface %q: quadrature point %d has non-finite position, weight or normal", ErrCut, c.Spec, i)
+			return fmt.Errorf("%w: surface %q: quadrature point %d has a non-finite position, normal or weight (%g)", ErrCut, c.Spec, i, q.W)
 		}
 		flow.EvalFlow(q.At, q.X, st)
 		if name, v, ok := checkState(st); !ok {
@@ -213,8 +225,20 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 	return nil
 }
 
-// checkState reports the first non-finite quantity of s.
+// checkState reports the first non-finite quantity of s. The fast path
+// sums every value once: the sum is finite unless some value is NaN or
+// infinite (or the sum overflows, which the detailed pass then clears).
 func checkState(s *field.FlowState) (string, float64, bool) {
+	sum := s.Rho + s.P + s.Mu + s.MuT
+	for i := 0; i < 3; i++ {
+		sum += s.V[i] + s.GradV[i][0] + s.GradV[i][1] + s.GradV[i][2]
+		if s.HasR {
+			sum += s.R[i][0] + s.R[i][1] + s.R[i][2]
+		}
+	}
+	if finite(sum) {
+		return "", 0, true
+	}
 	for _, q := range [...]struct {
 		name string
 		v    float64

@@ -183,6 +183,23 @@ func TestValueError(t *testing.T) {
 	}
 }
 
+// hugeFlow returns finite but enormous pressure and density.
+type hugeFlow struct{}
+
+func (hugeFlow) EvalFlow(_ field.Location, _ [3]float64, dst *field.FlowState) {
+	*dst = field.FlowState{Rho: 1e308, P: 1e308, V: [3]float64{1, 0, 0}}
+}
+
+// TestOverflow: finite values whose integrals overflow give ErrOverflow,
+// not a result holding Inf or NaN.
+func TestOverflow(t *testing.T) {
+	_, err := Forces(circle(0, 0, 1, 64, 4), hugeFlow{}, Options{Free: Freestream{V: Vec3{1, 0, 0}}})
+	var ve *ValueError
+	if !errors.Is(err, ErrOverflow) || errors.As(err, &ve) {
+		t.Errorf("error %v, want ErrOverflow", err)
+	}
+}
+
 // TestOptionErrors: bad options and cuts are errors, not panics.
 func TestOptionErrors(t *testing.T) {
 	c := circle(0, 0, 1, 16, 2)
@@ -212,6 +229,11 @@ func TestOptionErrors(t *testing.T) {
 	c4.Points[3].W = math.Inf(1)
 	if _, err := Forces(&c4, flow, Options{}); !errors.Is(err, ErrCut) {
 		t.Errorf("infinite weight: %v", err)
+	}
+	c5 := *c
+	c5.Points = nil
+	if _, err := Forces(&c5, flow, Options{}); !errors.Is(err, ErrCut) {
+		t.Errorf("no points: %v", err)
 	}
 	if _, err := Forces(c, nil, Options{}); err == nil {
 		t.Errorf("nil flow: no error")

@@ -74,9 +74,9 @@ type Result struct {
 
 	// DynamicPressure is q∞ = ½ρ∞|V∞|² (Pa).
 	DynamicPressure float64 `json:"dynamic_pressure"`
-	// HasCoefficients is true when q∞ > 0, the wind axes are defined and
-	// the reference area (3D) or length (2D) is given; otherwise
-	// Coefficients and DragCounts are zero.
+	// HasCoefficients is true when q∞ > 0, the wind axes are defined, the
+	// reference area (3D) or length (2D) is given and the coefficients are
+	// finite; otherwise Coefficients and DragCounts are zero (never NaN).
 	HasCoefficients bool `json:"has_coefficients"`
 	// Coefficients are Wind/(q∞ S_ref), with S_ref = RefArea in 3D and
 	// RefLength in 2D. DragCounts = 1e4·C_D (one count is ΔC_D = 1e-4,

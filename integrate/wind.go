@@ -68,7 +68,8 @@ func windAxes(v, up Vec3, dim int) (Axes, bool, error) {
 }
 
 // applyWind fills the wind components, dynamic pressure and coefficients
-// of r from its force and moment.
+// of r from its force and moment. Coefficients that would not be finite
+// (a vanishing or tiny reference) are left out, with their flags false.
 func applyWind(r *Result, opt *Options) {
 	if !r.HasWind {
 		return
@@ -81,15 +82,18 @@ func applyWind(r *Result, opt *Options) {
 		sref = opt.RefLength
 	}
 	q := r.DynamicPressure
-	if q <= 0 || sref <= 0 {
-		return
+	if !(q*sref > 0) || !finite(q*sref) {
+		return // no reference, no stream density, or out of range
 	}
-	r.HasCoefficients = true
-	r.Coefficients = Wind{Drag: r.Wind.Drag / (q * sref), Lift: r.Wind.Lift / (q * sref), Side: r.Wind.Side / (q * sref)}
-	r.DragCounts = 1e4 * r.Coefficients.Drag
-	if opt.RefLength > 0 {
-		r.HasMomentCoefficients = true
-		r.MomentCoefficients = scale(r.Moment, 1/(q*sref*opt.RefLength))
+	c := Wind{Drag: r.Wind.Drag / (q * sref), Lift: r.Wind.Lift / (q * sref), Side: r.Wind.Side / (q * sref)}
+	if !finite(1e4*c.Drag) || !finite(c.Lift) || !finite(c.Side) {
+		return // a reference so small that the coefficients overflow
+	}
+	r.HasCoefficients, r.Coefficients, r.DragCounts = true, c, 1e4*c.Drag
+	if d := q * sref * opt.RefLength; d > 0 && finite(d) {
+		if m := scale(r.Moment, 1/d); finiteVec(m) {
+			r.HasMomentCoefficients, r.MomentCoefficients = true, m
+		}
 	}
 }
 

@@ -99,3 +99,32 @@ func BoxPyramid(lo, hi [3]float64, n [3]int) *field.Zone {
 	}
 	return z
 }
+
+// Warp moves every point of z by a smooth displacement that vanishes on the
+// bounding box of z: coordinate k moves by ±amp·Π_j sin(π ξ_j), with ξ_j the
+// point's relative position along axis j (x and y only when z is planar).
+// The result is a smoothly curved mesh, as body-fitted meshes are, on the
+// same domain; amp below about a tenth of the box keeps cells valid.
+func Warp(z *field.Zone, amp float64) {
+	lo := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}
+	hi := [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
+	for i := 0; i < len(z.Points); i += 3 {
+		for k := 0; k < 3; k++ {
+			lo[k], hi[k] = math.Min(lo[k], z.Points[i+k]), math.Max(hi[k], z.Points[i+k])
+		}
+	}
+	dims := 3
+	if lo[2] == hi[2] {
+		dims = 2
+	}
+	sign := [3]float64{1, -1, 1}
+	for i := 0; i < len(z.Points); i += 3 {
+		s := 1.0
+		for j := 0; j < dims; j++ {
+			s *= math.Sin(math.Pi * (z.Points[i+j] - lo[j]) / (hi[j] - lo[j]))
+		}
+		for k := 0; k < dims; k++ {
+			z.Points[i+k] += sign[k] * amp * (hi[k] - lo[k]) * s
+		}
+	}
+}

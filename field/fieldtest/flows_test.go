@@ -19,6 +19,9 @@ func testFlows() map[string]Flow {
 		"sphere":    SpherePotential{Rho: 1.2, A: 0.6, U: [3]float64{1.5, 0.2, -0.3}},
 		"stokes":    StokesSphere{Mu: 0.37, A: 0.6, U: [3]float64{1.5, -0.4, 0.7}},
 		"rotating":  RotatingSphere{Mu: 0.37, A: 0.6, Omega: [3]float64{0.3, -1, 1.7}},
+		"source3d":  PointSource3D(1.2, 1.5, 2.3),
+		"ovoid":     RankineOvoid(1.2, 1.5, 2.3, 0.4),
+		"stokeslet": Stokeslet2D{Mu: 0.3, F: [2]float64{1.1, -0.4}},
 		"moved": Transformed{Base: StokesSphere{Mu: 0.37, A: 0.6, U: [3]float64{1.5, 0, 0}},
 			Rot: RotAxis([3]float64{0.6, 0, 0.8}, 0.7), Shift: [3]float64{0.3, -0.2, 1}},
 	}
@@ -36,6 +39,9 @@ func TestGradients(t *testing.T) {
 				x[2] = 0
 			}
 			if _, ok := f.(Kovasznay); ok {
+				x[2] = 0
+			}
+			if _, ok := f.(Stokeslet2D); ok {
 				x[2] = 0
 			}
 			s := f.State(x)
@@ -78,12 +84,13 @@ func TestMomentumEquation(t *testing.T) {
 		"kovasznay": Kovasznay{Re: 40},
 		"stokes":    StokesSphere{Mu: 0.37, A: 0.6, U: [3]float64{1.5, -0.4, 0.7}},
 		"rotating":  RotatingSphere{Mu: 0.37, A: 0.6, Omega: [3]float64{0.3, -1, 1.7}},
+		"stokeslet": Stokeslet2D{Mu: 0.3, F: [2]float64{1.1, -0.4}},
 	}
 	const h = 1e-3
 	for name, f := range flows {
 		x := [3]float64{0.9, 0.6, 0.5}
 		dims := 3
-		if name == "kovasznay" {
+		if name == "kovasznay" || name == "stokeslet" {
 			x[2], dims = 0, 2
 		}
 		s := f.State(x)
