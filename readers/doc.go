@@ -33,7 +33,9 @@
 // in any case with a sign (also -nan); these values are kept. CRLF line
 // ends are accepted. The ghost arrays vtkGhostType and vtkGhostLevels are
 // not kept as arrays: at cells they set Zone.Blank (value != 0); at
-// points they are dropped. A keyword the reader does not know ends the
+// points they are dropped. BINARY data is big-endian; a file whose first
+// cell integers are impossible big-endian but plausible little-endian is
+// read as little-endian with a warning (FORMATS.md §1.9). A keyword the reader does not know ends the
 // parse with a warning.
 //
 // Input may be compressed with gzip or zstd, recognised by magic bytes
@@ -62,13 +64,19 @@
 //
 // # Speed
 //
-// Input is read through one reusable buffer (4 MiB). ASCII number blocks
-// are cut at whitespace into parts parsed concurrently (Options.Workers
-// goroutines) into per-part buffers and copied out in part order; binary
-// blocks are converted in disjoint ranges. Results are identical for
-// every worker count. Simple decimal numbers are converted without
-// strconv (exact Clinger fast path); the rest go to strconv.ParseFloat, so
-// every value has the bits strconv would give.
+// Input is read through one reusable buffer that starts at 64 KiB and
+// grows to 4 MiB for big blocks; the file is never held whole. ASCII number
+// blocks are cut at whitespace into parts (up to four per worker) that
+// Options.Workers goroutines parse into per-part buffers; the values are
+// copied out in part order, so results are identical for every worker
+// count. Binary blocks are converted in disjoint ranges. Numbers of up to
+// 19 significant digits are converted without strconv (Clinger's exact
+// fast path, else the Eisel-Lemire method); the rest go to
+// strconv.ParseFloat, and every value has the bits strconv would give.
+// Compressed input is decompressed one buffer ahead of the parser in a
+// goroutine. Slices are allocated once from validated counts when the
+// input size is known; for streams of unknown size they grow (doubling)
+// as data arrives.
 //
 // WriteVTK writes a zone as a legacy VTK UNSTRUCTURED_GRID or POLYDATA
 // file, version 4.2 or 5.1, ASCII or BINARY, that reads back exactly.

@@ -87,7 +87,7 @@ type fxCell struct {
 	nodes []int32
 }
 
-// expectedCells maps one VTK cell (type id from vtkCellType.h, point ids in
+// fxExpectedCells maps one VTK cell (type id from vtkCellType.h, point ids in
 // VTK order) to the field cells the reader must produce, and reports
 // whether the reader must warn (quadratic cells reduced to corners).
 // Mapping (FORMATS.md §1.7-1.8 and the reader contract): pixel -> quad with
@@ -95,7 +95,7 @@ type fxCell struct {
 // polyline -> its segments; triangle strip -> its n-2 triangles (VTK
 // vtkTriangleStrip::DecomposeStrip: odd triangles reversed); quadratic cells
 // -> the linear cell of their corner nodes (corners come first).
-func expectedCells(vtkType int, p []int32) (cells []fxCell, warn bool) {
+func fxExpectedCells(vtkType int, p []int32) (cells []fxCell, warn bool) {
 	one := func(t field.CellType, nodes ...int32) []fxCell { return []fxCell{{t, nodes}} }
 	switch vtkType {
 	case 1:
@@ -157,10 +157,10 @@ func expectedCells(vtkType int, p []int32) (cells []fxCell, warn bool) {
 	panic(fmt.Sprintf("fixture uses VTK cell type %d, not mapped by the test", vtkType))
 }
 
-// sameCell reports whether got equals want, allowing a cyclic rotation for
+// fxSameCell reports whether got equals want, allowing a cyclic rotation for
 // triangles (a strip's odd triangle may be written starting at any node,
 // the orientation is what matters).
-func sameCell(gt field.CellType, got []int32, want fxCell) bool {
+func fxSameCell(gt field.CellType, got []int32, want fxCell) bool {
 	if gt != want.t || len(got) != len(want.nodes) {
 		return false
 	}
@@ -178,13 +178,13 @@ func sameCell(gt field.CellType, got []int32, want fxCell) bool {
 	return false
 }
 
-// relTol returns the relative tolerance for values of a VTK data type.
+// fxRelTol returns the relative tolerance for values of a VTK data type.
 // float: the reader parses ASCII text to float64 while VTK rounds it to
 // float32, a relative difference up to 2^-24 ~ 6e-8, so 1e-6 (the brief's
 // float32 tolerance). double: both parse the same decimal text with correct
 // rounding or copy the same 8 bytes, so 1e-14 only absorbs the JSON round
 // trip. Integer types: exact.
-func relTol(vtkType string) float64 {
+func fxRelTol(vtkType string) float64 {
 	switch vtkType {
 	case "float":
 		return 1e-6
@@ -194,15 +194,15 @@ func relTol(vtkType string) float64 {
 	return 0
 }
 
-func closeRel(a, b, rel float64) bool {
+func fxCloseRel(a, b, rel float64) bool {
 	if a == b || (math.IsNaN(a) && math.IsNaN(b)) {
 		return true
 	}
 	return math.Abs(a-b) <= rel*math.Max(math.Abs(a), math.Abs(b))
 }
 
-// checkFixture compares f (one zone) with the VTK description j.
-func checkFixture(t *testing.T, f *field.Field, j *fxJSON) {
+// fxCheckFixture compares f (one zone) with the VTK description j.
+func fxCheckFixture(t *testing.T, f *field.Field, j *fxJSON) {
 	t.Helper()
 	if len(f.Zones) != 1 {
 		t.Fatalf("%d zones, want 1", len(f.Zones))
@@ -215,9 +215,9 @@ func checkFixture(t *testing.T, f *field.Field, j *fxJSON) {
 	if z.NumPoints() != j.Points {
 		t.Fatalf("%d points, VTK reads %d", z.NumPoints(), j.Points)
 	}
-	pointTol := 1e-6 // points are float32 in most fixtures (see relTol)
+	pointTol := 1e-6 // points are float32 in most fixtures (see fxRelTol)
 	for i, want := range j.Coords {
-		if !closeRel(z.Points[i], want, pointTol) {
+		if !fxCloseRel(z.Points[i], want, pointTol) {
 			t.Fatalf("point %d coordinate %d = %v, VTK reads %v", i/3, i%3, z.Points[i], want)
 		}
 	}
@@ -226,7 +226,7 @@ func checkFixture(t *testing.T, f *field.Field, j *fxJSON) {
 	var parent []int // VTK cell of each expected field cell
 	warn := false
 	for c, vc := range j.CellList {
-		cs, w := expectedCells(vc.Type, vc.Points)
+		cs, w := fxExpectedCells(vc.Type, vc.Points)
 		warn = warn || w
 		for range cs {
 			parent = append(parent, c)
@@ -237,7 +237,7 @@ func checkFixture(t *testing.T, f *field.Field, j *fxJSON) {
 		t.Fatalf("%d cells, want %d (from VTK's %d cells)", z.NumCells(), len(want), j.Cells)
 	}
 	for c := range want {
-		if !sameCell(z.Types[c], z.CellNodes(c), want[c]) {
+		if !fxSameCell(z.Types[c], z.CellNodes(c), want[c]) {
 			t.Errorf("cell %d = %v %v, want %v %v (VTK cell %d, type %d)", c, z.Types[c], z.CellNodes(c),
 				want[c].t, want[c].nodes, parent[c], j.CellList[parent[c]].Type)
 		}
@@ -280,11 +280,11 @@ func checkFixture(t *testing.T, f *field.Field, j *fxJSON) {
 		if ga == nil {
 			continue
 		}
-		checkArray(t, z, ga, &wa, parent)
+		fxCheckArray(t, z, ga, &wa, parent)
 	}
 }
 
-func checkArray(t *testing.T, z *field.Zone, ga *field.Array, wa *fxArray, parent []int) {
+func fxCheckArray(t *testing.T, z *field.Zone, ga *field.Array, wa *fxArray, parent []int) {
 	t.Helper()
 	if ga.Location.String() != wa.Location {
 		t.Errorf("array %q at %v, VTK: %s", wa.Name, ga.Location, wa.Location)
@@ -307,7 +307,7 @@ func checkArray(t *testing.T, z *field.Zone, ga *field.Array, wa *fxArray, paren
 		t.Errorf("array %q: %d values, want %d", wa.Name, len(ga.Data), len(want))
 		return
 	}
-	tol := relTol(wa.VTKType)
+	tol := fxRelTol(wa.VTKType)
 	colour := wa.VTKType == "unsigned char" && wa.Kind == "SCALARS"
 	if colour {
 		// vtkDataWriter writes unsigned char scalars as COLOR_SCALARS:
@@ -329,7 +329,7 @@ func checkArray(t *testing.T, z *field.Zone, ga *field.Array, wa *fxArray, paren
 		if colour && math.Abs(v-want[i]) <= 5e-7 {
 			continue
 		}
-		if !closeRel(v, want[i], tol) {
+		if !fxCloseRel(v, want[i], tol) {
 			t.Errorf("array %q (%s) value %d (tuple %d comp %d) = %v, VTK reads %v", wa.Name, wa.VTKType, i, i/nc, i%nc, v, want[i])
 			return
 		}
@@ -338,7 +338,7 @@ func checkArray(t *testing.T, z *field.Zone, ga *field.Array, wa *fxArray, paren
 		// Summary values from the same JSON: first/last tuple and sums.
 		n := ga.Len()
 		for k := 0; k < nc; k++ {
-			if !closeRel(ga.Data[k], wa.First[k], tol) || !closeRel(ga.Data[(n-1)*nc+k], wa.Last[k], tol) {
+			if !fxCloseRel(ga.Data[k], wa.First[k], tol) || !fxCloseRel(ga.Data[(n-1)*nc+k], wa.Last[k], tol) {
 				t.Errorf("array %q: first/last tuple differ from VTK", wa.Name)
 			}
 			s := 0.0
@@ -366,7 +366,7 @@ func TestFixturesMatchVTK(t *testing.T) {
 			if err != nil {
 				t.Fatalf("ReadFile: %v", err)
 			}
-			checkFixture(t, f, j)
+			fxCheckFixture(t, f, j)
 		})
 	}
 }
@@ -403,18 +403,18 @@ func TestFixturesCompressedIdentical(t *testing.T) {
 				t.Errorf("%s: %v", path, err)
 				continue
 			}
-			if !sameFieldButNames(plain, f) {
+			if !fxSameFieldButNames(plain, f) {
 				t.Errorf("%s: field differs from %s", path, base)
 			}
 			j := loadFixtureJSON(t, filepath.Join(fixtureDir, strings.TrimSuffix(base, ".vtk")+".json"))
-			t.Run(base+ext, func(t *testing.T) { checkFixture(t, f, j) })
+			t.Run(base+ext, func(t *testing.T) { fxCheckFixture(t, f, j) })
 		}
 	}
 }
 
-// sameFieldButNames compares two fields ignoring zone names and the file
+// fxSameFieldButNames compares two fields ignoring zone names and the file
 // names inside warnings.
-func sameFieldButNames(a, b *field.Field) bool {
+func fxSameFieldButNames(a, b *field.Field) bool {
 	if len(a.Zones) != len(b.Zones) || len(a.Warnings) != len(b.Warnings) {
 		return false
 	}
@@ -445,7 +445,7 @@ func TestReadVTKMatchesReadFile(t *testing.T) {
 			t.Errorf("%s: ReadVTK: %v", path, err)
 			continue
 		}
-		if !sameFieldButNames(want, got) {
+		if !fxSameFieldButNames(want, got) {
 			t.Errorf("%s: ReadVTK and ReadFile differ", path)
 		}
 	}
@@ -579,7 +579,7 @@ func TestRealSolutionFiles(t *testing.T) {
 				for k := 0; k < nc; k++ {
 					// double data: both readers copy the same 8 bytes or parse
 					// the same 13-digit text; 1e-14 absorbs the JSON round trip.
-					if !closeRel(ga.Data[k], wa.First[k], 1e-14) || !closeRel(ga.Data[(n-1)*nc+k], wa.Last[k], 1e-14) {
+					if !fxCloseRel(ga.Data[k], wa.First[k], 1e-14) || !fxCloseRel(ga.Data[(n-1)*nc+k], wa.Last[k], 1e-14) {
 						t.Errorf("array %q comp %d: first/last %v %v, VTK %v %v", wa.Name, k, ga.Data[k], ga.Data[(n-1)*nc+k], wa.First[k], wa.Last[k])
 					}
 					s, sa := 0.0, 0.0

@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"sort"
 	"strconv"
 	"strings"
 	"testing"
@@ -43,9 +44,9 @@ func fuzzSeedFiles(f *testing.F) []string {
 	return out
 }
 
-// unsized hides the concrete type of a reader, so that ReadVTK cannot
+// fuzzUnsized hides the concrete type of a reader, so that ReadVTK cannot
 // learn the stream size and must take its streaming path.
-type unsized struct{ io.Reader }
+type fuzzUnsized struct{ io.Reader }
 
 // fuzzRead reads data with opt, turning a panic into a test failure.
 func fuzzRead(t *testing.T, r io.Reader, opt Options) (f *field.Field, err error) {
@@ -62,7 +63,11 @@ func fuzzRead(t *testing.T, r io.Reader, opt Options) (f *field.Field, err error
 // no panic; every error is an *Error; every successful read gives zones
 // that pass field.Zone.Validate; 1 and 2 workers give bit-identical fields
 // or identical errors (house rule 7); the sized (bytes.Reader) and
-// streaming (size unknown) paths agree on success and on the field.
+// streaming (size unknown) paths agree on success and on the field; a read
+// keeping only one array (Options.Arrays) gives the same zone restricted to
+// it. Run with a short minimisation time, e.g.
+//
+//	go test -run XXX -fuzz '^FuzzReadVTK$' -fuzztime 300s -fuzzminimizetime 2s ./readers/
 func FuzzReadVTK(f *testing.F) {
 	for _, p := range fuzzSeedFiles(f) {
 		b, err := os.ReadFile(p)
@@ -76,7 +81,7 @@ func FuzzReadVTK(f *testing.F) {
 		opt2 := Options{MaxBytes: fuzzMaxBytes, Workers: 2}
 		f1, err1 := fuzzRead(t, bytes.NewReader(data), opt1)
 		f2, err2 := fuzzRead(t, bytes.NewReader(data), opt2)
-		fs, errs := fuzzRead(t, unsized{bytes.NewReader(data)}, opt2)
+		fs, errs := fuzzRead(t, fuzzUnsized{bytes.NewReader(data)}, opt2)
 		for _, err := range []error{err1, err2, errs} {
 			var e *Error
 			if err != nil && !errors.As(err, &e) {
@@ -97,18 +102,70 @@ func FuzzReadVTK(f *testing.F) {
 				t.Fatalf("read succeeded with an invalid zone: %v", err)
 			}
 		}
-		if d := diffFields(f1, f2); d != "" {
+		if d := fuzzDiffFields(f1, f2); d != "" {
 			t.Fatalf("1 vs 2 workers: %s", d)
 		}
-		if d := diffFields(f1, fs); d != "" {
+		if d := fuzzDiffFields(f1, fs); d != "" {
 			t.Fatalf("sized vs streaming: %s", d)
+		}
+		// WriteVTK round trip: BINARY 5.1 must give back the zone bit for
+		// bit, ASCII 4.2 the same values (NaN payloads may be normalised).
+		for _, wo := range []WriteOptions{{Binary: true, Version: "5.1"}, {Version: "4.2"}} {
+			var buf bytes.Buffer
+			if err := WriteVTK(&buf, f1.Zones[0], wo); err != nil {
+				t.Fatalf("WriteVTK(%+v) of a zone read successfully: %v", wo, err)
+			}
+			back, err := fuzzRead(t, bytes.NewReader(buf.Bytes()), Options{Workers: 1})
+			if err != nil {
+				t.Fatalf("WriteVTK(%+v) output does not read back: %v", wo, err)
+			}
+			bz := *back.Zones[0]
+			bz.Name = f1.Zones[0].Name
+			orig := *f1.Zones[0]
+			// WriteVTK groups arrays by kind (SCALARS, VECTORS, FIELD), so
+			// compare them in (location, name) order.
+			fuzzSortArrays(&bz)
+			fuzzSortArrays(&orig)
+			if !wo.Binary {
+				fuzzNormaliseNaN(&bz)
+				fuzzNormaliseNaN(&orig)
+				if d := fuzzDiffFields(&field.Field{Zones: []*field.Zone{&orig}}, &field.Field{Zones: []*field.Zone{&bz}}); d != "" {
+					t.Fatalf("WriteVTK(%+v) round trip: %s", wo, d)
+				}
+				continue
+			}
+			if d := fuzzDiffFields(&field.Field{Zones: []*field.Zone{&orig}}, &field.Field{Zones: []*field.Zone{&bz}}); d != "" {
+				t.Fatalf("WriteVTK(%+v) round trip: %s", wo, d)
+			}
+		}
+		// Options.Arrays: keeping only the first array goes through the
+		// skip paths for the others and must give the same zone restricted
+		// to that array.
+		z := f1.Zones[0]
+		if len(z.Arrays) == 0 {
+			return
+		}
+		keep := z.Arrays[0].Name
+		ff, err := fuzzRead(t, bytes.NewReader(data), Options{MaxBytes: fuzzMaxBytes, Workers: 1, Arrays: []string{keep}})
+		if err != nil {
+			t.Fatalf("full read succeeds, read keeping only %q fails: %v", keep, err)
+		}
+		want := *z
+		want.Arrays = nil
+		for _, a := range z.Arrays {
+			if a.Name == keep {
+				want.Arrays = append(want.Arrays, a)
+			}
+		}
+		if d := fuzzDiffFields(&field.Field{Zones: []*field.Zone{&want}, Warnings: f1.Warnings}, ff); d != "" {
+			t.Fatalf("keeping only %q: %s", keep, d)
 		}
 	})
 }
 
-// diffFields describes the first difference between a and b, comparing
+// fuzzDiffFields describes the first difference between a and b, comparing
 // floating-point data bit for bit (so NaN equals the same NaN); "" if equal.
-func diffFields(a, b *field.Field) string {
+func fuzzDiffFields(a, b *field.Field) string {
 	if len(a.Zones) != len(b.Zones) {
 		return fmt.Sprintf("%d vs %d zones", len(a.Zones), len(b.Zones))
 	}
@@ -120,7 +177,7 @@ func diffFields(a, b *field.Field) string {
 		switch {
 		case za.Name != zb.Name:
 			return "zone names differ"
-		case !sameBits(za.Points, zb.Points):
+		case !fuzzSameBits(za.Points, zb.Points):
 			return "points differ"
 		case fmt.Sprint(za.Types) != fmt.Sprint(zb.Types):
 			return "cell types differ"
@@ -133,7 +190,7 @@ func diffFields(a, b *field.Field) string {
 		}
 		for k := range za.Arrays {
 			x, y := &za.Arrays[k], &zb.Arrays[k]
-			if x.Name != y.Name || x.Location != y.Location || x.Components != y.Components || !sameBits(x.Data, y.Data) {
+			if x.Name != y.Name || x.Location != y.Location || x.Components != y.Components || !fuzzSameBits(x.Data, y.Data) {
 				return fmt.Sprintf("array %d (%q) differs", k, x.Name)
 			}
 		}
@@ -141,7 +198,40 @@ func diffFields(a, b *field.Field) string {
 	return ""
 }
 
-func sameBits(a, b []float64) bool {
+// fuzzSortArrays replaces z.Arrays by a copy stably sorted by location, name.
+func fuzzSortArrays(z *field.Zone) {
+	a := append([]field.Array(nil), z.Arrays...)
+	sort.SliceStable(a, func(i, j int) bool {
+		if a[i].Location != a[j].Location {
+			return a[i].Location < a[j].Location
+		}
+		return a[i].Name < a[j].Name
+	})
+	z.Arrays = a
+}
+
+// fuzzNormaliseNaN replaces every NaN of z (a copy's slices are replaced, not
+// modified) by the canonical math.NaN().
+func fuzzNormaliseNaN(z *field.Zone) {
+	fix := func(d []float64) []float64 {
+		out := append([]float64(nil), d...)
+		for i, v := range out {
+			if math.IsNaN(v) {
+				out[i] = math.NaN()
+			}
+		}
+		return out
+	}
+	z.Points = fix(z.Points)
+	arrs := make([]field.Array, len(z.Arrays))
+	for i, a := range z.Arrays {
+		a.Data = fix(a.Data)
+		arrs[i] = a
+	}
+	z.Arrays = arrs
+}
+
+func fuzzSameBits(a, b []float64) bool {
 	if len(a) != len(b) {
 		return false
 	}
@@ -153,15 +243,15 @@ func sameBits(a, b []float64) bool {
 	return true
 }
 
-// decimalToken is the number grammar of parseNumber's doc comment (legacy
+// fuzzDecimalToken is the number grammar of parseNumber's doc comment (legacy
 // VTK ASCII numbers): optional sign, digits with an optional fraction (at
 // least one digit), optional exponent. Hex floats and underscores, which
 // strconv accepts, are outside it (FORMATS.md §1.9).
-var decimalToken = regexp.MustCompile(`^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$`)
+var fuzzDecimalToken = regexp.MustCompile(`^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$`)
 
-// specialToken is nan, inf or infinity in any case with an optional sign
+// fuzzSpecialToken is nan, inf or infinity in any case with an optional sign
 // (VTK TestLegacyArrayInfNan accepts "-inf -nan", rejects "nan5", "infini").
-var specialToken = regexp.MustCompile(`^[+-]?(?i:nan|inf|infinity)$`)
+var fuzzSpecialToken = regexp.MustCompile(`^[+-]?(?i:nan|inf|infinity)$`)
 
 // FuzzParseNumber is a differential test of the reader's float parser
 // against strconv.ParseFloat: for every token of the grammar the bits must
@@ -183,7 +273,7 @@ func FuzzParseNumber(f *testing.F) {
 		got, ok := parseNumber(tok, f32)
 		s := string(tok)
 		switch {
-		case specialToken.MatchString(s):
+		case fuzzSpecialToken.MatchString(s):
 			if !ok {
 				t.Fatalf("%q rejected", s)
 			}
@@ -200,7 +290,7 @@ func FuzzParseNumber(f *testing.F) {
 			if got != want {
 				t.Fatalf("%q = %v, want %v", s, got, want)
 			}
-		case decimalToken.MatchString(s):
+		case fuzzDecimalToken.MatchString(s):
 			bits := 64
 			if f32 {
 				bits = 32

@@ -29,9 +29,9 @@ import (
 
 const malformedDir = "../testdata/malformed"
 
-// sentinels are the documented error kinds; a nil want means "a syntax
+// mfSentinels are the documented error kinds; a nil want means "a syntax
 // error": none of them may match.
-var sentinels = []error{readers.ErrUnknownFormat, readers.ErrTooLarge, readers.ErrUnsupported, readers.ErrTruncated}
+var mfSentinels = []error{readers.ErrUnknownFormat, readers.ErrTooLarge, readers.ErrUnsupported, readers.ErrTruncated}
 
 type malformedCase struct {
 	file   string
@@ -102,6 +102,14 @@ var malformedCases = []malformedCase{
 		`cell_index_negative.vtk:8: CELLS: expected cell 0: node indices in [0,4), found -1`},
 	{"celltype_mismatch.vtk", 0, nil, 8, 0,
 		`celltype_mismatch.vtk:8: CELLS: expected cell 0 of type TETRA (10): 4 nodes, found 3 nodes`},
+	// Variable-size cell types (POLYGON 7, TRIANGLE_STRIP 6) need at least
+	// 3 nodes (FORMATS.md §1.7; vtkPolygon, vtkTriangleStrip); a 0-node
+	// cell must not reach the zone (found by FuzzReadVTK, crasher
+	// testdata/fuzz/FuzzReadVTK/98ce038aad93b534).
+	{"cell_zero_nodes_polygon.vtk", 0, nil, 8, 0,
+		`cell_zero_nodes_polygon.vtk:8: CELLS: expected cell 1 of type POLYGON (7): at least 3 nodes, found 0 nodes`},
+	{"cell_zero_nodes_strip.vtk", 0, nil, 8, 0,
+		`cell_zero_nodes_strip.vtk:8: CELLS: expected cell 1 of type TRIANGLE_STRIP (6): at least 3 nodes, found 0 nodes`},
 	{"celltype_unknown.vtk", 0, readers.ErrUnsupported, 10, 0,
 		`celltype_unknown.vtk:10: CELL_TYPES: expected cell 0: a supported cell type, found type 99 (unsupported)`},
 	{"celltype_polyhedron.vtk", 0, readers.ErrUnsupported, 10, 0,
@@ -137,6 +145,10 @@ var malformedCases = []malformedCase{
 	// from the declaration, positioned at the data start (line 6).
 	{"bomb.vtk.gz", 1 << 20, readers.ErrTooLarge, 6, 0,
 		`bomb.vtk.gz:6: POINTS: expected 15000000 coordinates, found a block of at least 29999999 bytes, beyond the 1048576-byte limit (Options.MaxBytes) (too large)`},
+	// A plain file larger than Options.MaxBytes is refused from its size
+	// (3006 bytes) before reading.
+	{"binary_truncated_tail.vtk", 1000, readers.ErrTooLarge, 0, 0,
+		`binary_truncated_tail.vtk: byte 0: expected at most 1000 bytes (Options.MaxBytes), found 3006 bytes (too large)`},
 	// bomb_whitespace.vtk.gz declares nothing large but inflates to 16 MiB
 	// of blank lines: refused when the stream passes the limit.
 	{"bomb_whitespace.vtk.gz", 1 << 20, readers.ErrTooLarge, 0, 1 << 20,
@@ -158,12 +170,12 @@ func TestMalformedExactErrors(t *testing.T) {
 	for _, c := range malformedCases {
 		t.Run(c.file, func(t *testing.T) {
 			_, err := readers.ReadFile(filepath.Join(malformedDir, c.file), readers.Options{MaxBytes: c.max})
-			checkMalformed(t, err, c)
+			mfCheck(t, err, c)
 		})
 	}
 }
 
-func checkMalformed(t *testing.T, err error, c malformedCase) {
+func mfCheck(t *testing.T, err error, c malformedCase) {
 	t.Helper()
 	if err == nil {
 		t.Fatalf("no error, want %q", c.msg)
@@ -178,7 +190,7 @@ func checkMalformed(t *testing.T, err error, c malformedCase) {
 	if e.Line != c.line || e.Offset != c.offset {
 		t.Errorf("position line %d offset %d, want line %d offset %d", e.Line, e.Offset, c.line, c.offset)
 	}
-	for _, s := range sentinels {
+	for _, s := range mfSentinels {
 		if is := errors.Is(err, s); is != (s == c.want) {
 			t.Errorf("errors.Is(err, %v) = %v", s, is)
 		}
@@ -341,13 +353,13 @@ func TestMalformedCorpusCovered(t *testing.T) {
 	}
 }
 
-// bigASCII returns an ASCII STRUCTURED_POINTS file of n = 100*100*30
+// mfBigASCII returns an ASCII STRUCTURED_POINTS file of n = 100*100*30
 // points with a SCALARS array s[i] = i/2 - 1000.25 and a VECTORS array
 // v[i] = (i, -i/4, 3), all exactly representable, 9 values per line as VTK
 // writes them. It is larger than the reader's 4 MiB buffer, so blocks are
 // cut across refills and split between workers. If bad >= 0, the token of
 // s[bad] is replaced by "1.2.3" and the line of that token is returned.
-func bigASCII(bad int) ([]byte, int) {
+func mfBigASCII(bad int) ([]byte, int) {
 	var b bytes.Buffer
 	b.WriteString("# vtk DataFile Version 4.2\nbig\nASCII\nDATASET STRUCTURED_POINTS\nDIMENSIONS 100 100 30\nORIGIN 0 0 0\nSPACING 1 1 1\n")
 	const n = 100 * 100 * 30
@@ -381,7 +393,7 @@ func TestLargeASCIIWorkers(t *testing.T) {
 	if testing.Short() {
 		t.Skip("8 MB input")
 	}
-	data, _ := bigASCII(-1)
+	data, _ := mfBigASCII(-1)
 	var first *field.Field
 	for _, w := range []int{1, 2, 3} {
 		for _, streaming := range []bool{false, true} {
@@ -413,7 +425,7 @@ func TestLargeASCIIWorkers(t *testing.T) {
 		}
 	}
 	for _, bad := range []int{5, 150001, 299999} {
-		data, line := bigASCII(bad)
+		data, line := mfBigASCII(bad)
 		var msg string
 		for _, w := range []int{1, 2, 3} {
 			_, err := readers.ReadVTK(bytes.NewReader(data), "big.vtk", readers.Options{Workers: w})
@@ -436,13 +448,13 @@ func TestLargeASCIIWorkers(t *testing.T) {
 	}
 }
 
-// bigBinary returns a BINARY 5.1 UNSTRUCTURED_GRID of n vertex cells
+// mfBigBinary returns a BINARY 5.1 UNSTRUCTURED_GRID of n vertex cells
 // (point i at (i, 2i, -i), float; cell i = vertex i) with a POINT_DATA
 // double array d[i] = i*0.25 - 7. OFFSETS and CONNECTIVITY are vtktypeint64
 // (800 KB each), so their conversion is split between workers. If bad >= 0,
 // connectivity[bad] is set to 2^40 and the byte offset of that value is
 // returned.
-func bigBinary(bad int) ([]byte, int64) {
+func mfBigBinary(bad int) ([]byte, int64) {
 	const n = 100000
 	var b bytes.Buffer
 	fmt.Fprintf(&b, "# vtk DataFile Version 5.1\nbig\nBINARY\nDATASET UNSTRUCTURED_GRID\nPOINTS %d float\n", n)
@@ -480,7 +492,7 @@ func bigBinary(bad int) ([]byte, int64) {
 // BINARY blocks converted in parallel; an out-of-range index planted in
 // the second half of CONNECTIVITY must be reported at its exact byte.
 func TestLargeBinaryWorkers(t *testing.T) {
-	data, _ := bigBinary(-1)
+	data, _ := mfBigBinary(-1)
 	var first *field.Field
 	for _, w := range []int{1, 2, 3} {
 		for _, streaming := range []bool{false, true} {
@@ -513,7 +525,7 @@ func TestLargeBinaryWorkers(t *testing.T) {
 		}
 	}
 	for _, bad := range []int{3, 70001, 99999} {
-		data, off := bigBinary(bad)
+		data, off := mfBigBinary(bad)
 		for _, w := range []int{1, 2, 3} {
 			_, err := readers.ReadVTK(bytes.NewReader(data), "big.vtk", readers.Options{Workers: w})
 			var e *readers.Error

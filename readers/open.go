@@ -34,6 +34,8 @@ type Options struct {
 	// convert binary blocks; zero means GOMAXPROCS. Results are identical
 	// for every value.
 	Workers int
+
+	ffcg *ffcgHook // set by ReadCase and ReadFFCG (ffcg.go)
 }
 
 func (o Options) workers() int {
@@ -72,7 +74,8 @@ var (
 
 // ReadFile reads one legacy VTK file, plain or compressed with gzip or
 // zstd (recognised by magic bytes, not by name), into a field of one zone
-// named after the file's base name. Errors are *Error values.
+// named after the file's base name. Failing to open the file returns the
+// *fs.PathError of os.Open; every reading error is an *Error.
 func ReadFile(path string, opt Options) (*field.Field, error) {
 	f, err := os.Open(path)
 	if err != nil {
@@ -153,6 +156,9 @@ func read(r io.Reader, name string, size int64, opt Options) (*field.Field, erro
 		return nil, &Error{File: name, Expected: fmt.Sprintf("at most %d bytes (Options.MaxBytes)", opt.maxBytes()), Found: fmt.Sprintf("%d bytes", size), Err: ErrTooLarge}
 	}
 	s := newScanner(src, name, size, opt)
+	if f, ok, err := readFFCGIf(s, opt); ok {
+		return f, err
+	}
 	z, err := parseVTK(s, opt)
 	if err != nil {
 		return nil, err

@@ -113,6 +113,7 @@ func (s *scanner) readASCII(n int, f32 bool, sec, what string, dst sink) error {
 		if chunk == nil {
 			return s.errAt(sec, fmt.Sprintf("%d %s", n, what), fmt.Sprintf("%d before EOF", got), ErrTruncated)
 		}
+		got0 := got
 		parts := s.split(chunk)
 		if w := min(s.workers, len(parts)); w <= 1 {
 			for i := range parts {
@@ -153,7 +154,7 @@ func (s *scanner) readASCII(n int, f32 bool, sec, what string, dst sink) error {
 				if take < len(p.vals) {
 					end = tokenEnd(p.data, take)
 				}
-				s.noteTokens(start+end, got)
+				s.noteTokens(start+end, got-got0)
 				s.advance(start + end)
 				return nil
 			}
@@ -163,7 +164,7 @@ func (s *scanner) readASCII(n int, f32 bool, sec, what string, dst sink) error {
 			}
 			start += len(p.data)
 		}
-		s.noteTokens(len(chunk), got)
+		s.noteTokens(len(chunk), got-got0)
 		s.advance(len(chunk))
 	}
 	return nil
@@ -185,8 +186,8 @@ func (s *scanner) bytesPerToken() int {
 	return int(s.tokBytes/s.tokCount) + 2
 }
 
-// noteTokens updates the estimate after a chunk of b bytes that completed
-// the block at n tokens in total.
+// noteTokens updates the estimate with a chunk of b bytes that held n
+// numbers.
 func (s *scanner) noteTokens(b, n int) {
 	s.tokBytes += int64(b)
 	s.tokCount += int64(n)

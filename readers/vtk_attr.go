@@ -148,10 +148,11 @@ func (f *vtkFile) colorScalars(k keyLine, name string, comps int) error {
 	if !f.s.ascii {
 		t = dtypes["unsigned_char"]
 	}
+	before := len(f.pointArrays) + len(f.cellArrays)
 	if err := f.array(k.f[0], name, comps, int64(f.locN), t); err != nil {
 		return err
 	}
-	if !f.s.ascii {
+	if !f.s.ascii && len(f.pointArrays)+len(f.cellArrays) > before {
 		if a := f.last(name); a != nil {
 			for i := range a.Data {
 				a.Data[i] /= 255

@@ -15,6 +15,9 @@ import (
 	"testing"
 	"time"
 
+	"github.com/klauspost/compress/gzip"
+	"github.com/klauspost/compress/zstd"
+
 	"farforce/field"
 	"farforce/field/fieldtest"
 )
@@ -232,4 +235,45 @@ func BenchmarkParseNumber(b *testing.B) {
 
 func strconvParse(t []byte) {
 	_, _ = strconv.ParseFloat(string(t), 64)
+}
+
+// BenchmarkReadCompressed reads gzip and zstd copies of the 1M-cell
+// binary hexahedral input (throughput in decompressed bytes); the
+// decompressor runs ahead of the parser in its own goroutine.
+func BenchmarkReadCompressed(b *testing.B) {
+	plain := benchFile(b, "hex", 1_000_000, true)
+	raw, err := os.ReadFile(plain)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, c := range []string{"gzip", "zstd"} {
+		b.Run(c, func(b *testing.B) {
+			var buf bytes.Buffer
+			if c == "gzip" {
+				w := gzip.NewWriter(&buf)
+				w.Write(raw)
+				w.Close()
+			} else {
+				w, _ := zstd.NewWriter(&buf)
+				w.Write(raw)
+				w.Close()
+			}
+			p := filepath.Join(benchDir, "hex."+c)
+			if err := os.WriteFile(p, buf.Bytes(), 0o644); err != nil {
+				b.Fatal(err)
+			}
+			b.SetBytes(int64(len(raw)))
+			b.ReportAllocs()
+			cpu0 := cpuTime()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				if _, err := ReadFile(p, Options{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.StopTimer()
+			b.ReportMetric((cpuTime()-cpu0).Seconds()*1000/float64(b.N), "cpu-ms/op")
+			b.ReportMetric(float64(buf.Len())/(1<<20), "compressed-MB")
+		})
+	}
 }

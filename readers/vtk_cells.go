@@ -85,6 +85,7 @@ type cellBlock struct {
 	conn    []int32
 	fixed   int32
 	at      keyLine
+	checked int // node indices already checked against this many points (0: not yet)
 }
 
 // cellBlock reads "CELLS a b" (or a POLYDATA section line) and its data,
@@ -118,11 +119,22 @@ func (f *vtkFile) cellBlock(k keyLine) (*cellBlock, error) {
 	if _, err := f.checkInt32(k, b, "cell entries"); err != nil {
 		return nil, err
 	}
+	if a > 0 {
+		if err := f.checkEndian(dtypes["int"], 0, b); err != nil {
+			return nil, err
+		}
+	}
 	raw, err := f.s.readInts(b, dtypes["int"], sec, "cell entries")
 	if err != nil {
 		return nil, err
 	}
+	// Compact "n i j k ..." in place into connectivity and offsets; when
+	// the points are known, check the node indices on the way.
 	offsets := make([]int32, a+1)
+	np := uint32(math.MaxUint32)
+	if f.havePoints {
+		np = uint32(len(f.points) / 3)
+	}
 	r, w := 0, 0
 	for c := 0; c < int(a); c++ {
 		if r >= len(raw) {
@@ -132,13 +144,13 @@ func (f *vtkFile) cellBlock(k keyLine) (*cellBlock, error) {
 		if m < 0 || m > len(raw)-r-1 {
 			return nil, f.errKey(k, fmt.Sprintf("cell %d: a node count within the %d entries", c, b), fmt.Sprint(m), errSyntax)
 		}
-		if m <= 16 {
-			src, dst := raw[r+1:r+1+m], raw[w:w+m]
-			for i := range src {
-				dst[i] = src[i]
+		src := raw[r+1 : r+1+m]
+		dst := raw[w : w+len(src)]
+		for i, v := range src {
+			if uint32(v) >= np {
+				return nil, f.errKey(k, fmt.Sprintf("cell %d: node indices in [0,%d)", c, np), fmt.Sprint(v), errSyntax)
 			}
-		} else {
-			copy(raw[w:], raw[r+1:r+1+m])
+			dst[i] = v
 		}
 		r += 1 + m
 		w += m
@@ -147,7 +159,11 @@ func (f *vtkFile) cellBlock(k keyLine) (*cellBlock, error) {
 	if r != len(raw) {
 		return nil, f.errKey(k, fmt.Sprintf("%d entries for %d cells", b, a), fmt.Sprintf("%d used", r), errSyntax)
 	}
-	return &cellBlock{n: int(a), offsets: offsets, conn: raw[:w], at: k}, f.afterArray()
+	blk := &cellBlock{n: int(a), offsets: offsets, conn: raw[:w], at: k}
+	if f.havePoints {
+		blk.checked = int(np)
+	}
+	return blk, f.afterArray()
 }
 
 // cellBlock5 reads the OFFSETS and CONNECTIVITY sub-blocks of a 5.x cell
@@ -176,6 +192,11 @@ func (f *vtkFile) cellBlock5(k keyLine, a, b int64) (*cellBlock, error) {
 		}
 		if _, err := f.checkInt32(sk, n, want+" entries"); err != nil {
 			return nil, err
+		}
+		if i == 0 && n > 1 {
+			if err := f.checkEndian(t, 1, b); err != nil {
+				return nil, err
+			}
 		}
 		arrays[i], err = f.s.readInts(n, t, sk.f[0], want+" entries")
 		if err != nil {
@@ -223,6 +244,11 @@ func (f *vtkFile) cellTypesBlock(k keyLine) error {
 	}
 	if n != int64(f.cells.n) {
 		return f.errKey(k, fmt.Sprintf("%d cell types (one per cell)", f.cells.n), fmt.Sprint(n), errSyntax)
+	}
+	if n > 0 {
+		if err := f.checkEndian(dtypes["int"], 0, 81); err != nil {
+			return err
+		}
 	}
 	t, err := f.s.readInts(n, dtypes["int"], "CELL_TYPES", "cell types")
 	if err != nil {
@@ -323,6 +349,18 @@ func vtkTypeName(t int32) string {
 	return ""
 }
 
+// singleType is the field type of a variable-size VTK cell of type t with
+// m nodes that becomes a single field cell.
+func singleType(t int32, m int) field.CellType {
+	switch t {
+	case vtkPolygon:
+		return polygonType(m)
+	case vtkQuadPolygon:
+		return polygonType(m / 2)
+	}
+	return vtkInfo[t].out // a poly-vertex, polyline or strip of one piece
+}
+
 // polygonType is Triangle, Quad or Polygon by node count.
 func polygonType(m int) field.CellType {
 	switch m {
@@ -362,18 +400,27 @@ func (f *vtkFile) convert(blocks []*cellBlock, np int) (convertedCells, error) {
 	expand := len(blocks) > 1
 	identity := true
 	quad := map[int32]int{}
+	// ft holds the field types for the common case of one block whose
+	// cells map one to one; it is dropped if any cell splits.
+	var ft []field.CellType
+	if !expand {
+		ft = make([]field.CellType, blocks[0].n)
+	}
 	for _, b := range blocks {
 		for c := 0; c < b.n; c++ {
 			t := f.typeOf(b, c)
 			m := int(b.offsets[c+1] - b.offsets[c])
 			if uint32(t) < uint32(len(cellTab)) {
-				if e := &cellTab[t]; e.nodes == m && e.ok {
+				if e := &cellTab[t]; e.nodes == m && m > 0 && e.ok {
 					if e.quadratic {
 						quad[t]++
 					}
 					identity = identity && e.identity
 					nCells++
 					nNodes += int64(len(e.keep))
+					if ft != nil {
+						ft[c] = e.out
+					}
 					continue
 				}
 			}
@@ -383,6 +430,8 @@ func (f *vtkFile) convert(blocks []*cellBlock, np int) (convertedCells, error) {
 			}
 			if pc != 1 || pn > m {
 				expand = true
+			} else if ft != nil {
+				ft[c] = singleType(t, m)
 			}
 			if pn != m {
 				identity = false
@@ -398,6 +447,9 @@ func (f *vtkFile) convert(blocks []*cellBlock, np int) (convertedCells, error) {
 		return convertedCells{}, f.errKey(blocks[0].at, "at most 2^31-1 cells and connectivity entries", fmt.Sprintf("%d cells, %d entries", nCells, nNodes), ErrTooLarge)
 	}
 	for _, b := range blocks {
+		if b.checked == np && np > 0 {
+			continue
+		}
 		for i, p := range b.conn {
 			if uint32(p) >= uint32(np) {
 				c := sort.Search(b.n, func(c int) bool { return int(b.offsets[c+1]) > i })
@@ -407,15 +459,11 @@ func (f *vtkFile) convert(blocks []*cellBlock, np int) (convertedCells, error) {
 	}
 	f.warnQuadratic(quad)
 	var out convertedCells
-	out.types = make([]field.CellType, 0, nCells)
 	if !expand && identity {
-		b := blocks[0]
-		for c := 0; c < b.n; c++ {
-			out.types = append(out.types, cellTab[f.typeOf(b, c)].out)
-		}
-		out.offsets, out.conn = b.offsets, b.conn
+		out.types, out.offsets, out.conn = ft, blocks[0].offsets, blocks[0].conn
 		return out, nil
 	}
+	out.types = make([]field.CellType, 0, nCells)
 	if expand {
 		out.offsets = make([]int32, 1, nCells+1)
 		out.conn = make([]int32, 0, nNodes)

@@ -86,6 +86,7 @@ func (f *vtkFile) pointsBlock(k keyLine) error {
 	if err != nil {
 		return err
 	}
+	f.pointsType = t
 	p, err := f.s.readFloats(3*n, t, "POINTS", "coordinates")
 	if err != nil {
 		return err
@@ -145,6 +146,10 @@ func (f *vtkFile) axis(k keyLine, i int) error {
 	if err != nil {
 		return err
 	}
+	if f.pointsType.size != 0 && f.pointsType != t {
+		f.endianChecked = true // mixed axis types: do not guess
+	}
+	f.pointsType = t
 	c, err := f.s.readFloats(n, t, k.f[0], "coordinates")
 	if err != nil {
 		return err

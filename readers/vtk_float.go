@@ -19,9 +19,11 @@ var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
 // strconv.ParseFloat(tok, 64 or 32) for every token strconv accepts and
 // this grammar allows; out-of-range values give ±Inf or ±0.
 //
-// Simple tokens (at most 19 significant digits, value exactly computable
-// with one multiplication or division by an exact power of ten, Clinger
-// 1990) are converted directly; the rest go to strconv.
+// Tokens of at most 19 significant digits are converted directly: with
+// one exact multiplication or division by a power of ten when both are
+// exact in float64 (Clinger 1990), else by the Eisel-Lemire method
+// (vtk_lemire.go); longer tokens and the rare undecided cases go to
+// strconv.
 func parseNumber(tok []byte, f32 bool) (float64, bool) {
 	i := 0
 	neg := false
@@ -113,6 +115,12 @@ func parseNumber(tok []byte, f32 bool) (float64, bool) {
 		} else {
 			f *= pow10[exp]
 		}
+	case !trunc:
+		g, ok := eiselLemire(m, exp, false)
+		if !ok {
+			return slowParse(tok, f32)
+		}
+		f = g
 	default:
 		return slowParse(tok, f32)
 	}

@@ -38,6 +38,9 @@ type vtkFile struct {
 	pointArrays []field.Array
 	cellArrays  []field.Array
 	ghost       []float64 // cell ghost values (vtkGhostType, vtkGhostLevels)
+
+	pointsType    dtype // type of POINTS or of the RECTILINEAR_GRID axes
+	endianChecked bool  // the little-endian test has run
 }
 
 // parseVTK reads a whole legacy VTK stream and returns its zone.

@@ -101,7 +101,7 @@ func (s *scanner) fill(n int) error {
 		return nil
 	}
 	if n > len(s.buf) {
-		nb := make([]byte, n)
+		nb := make([]byte, max(n, 2*len(s.buf)))
 		copy(nb, s.buf[s.pos:s.end])
 		s.base += int64(s.pos)
 		s.end -= s.pos

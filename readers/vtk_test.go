@@ -278,6 +278,17 @@ LOOKUP_TABLE default
 	eqT(t, z.Types, field.Line, field.Line)
 	eqI(t, "conn", z.Conn, []int32{0, 1, 1, 2})
 	eqF(t, "points", z.Points, []float64{1, 2, 3, 1, 2, 4, 1, 2, 5})
+
+	// BINARY, 3D: one voxel-shaped hexahedron, SPACING before ORIGIN.
+	var b bin
+	b.line("# vtk DataFile Version 3.0").line("sp").line("BINARY").line("DATASET STRUCTURED_POINTS")
+	b.line("SPACING 1 2 4").line("ORIGIN 0 0 -1").line("DIMENSIONS 2 2 2")
+	b.line("POINT_DATA 8").line("SCALARS p float").line("LOOKUP_TABLE default").f32(0, 1, 2, 3, 4, 5, 6, 7.5).line("")
+	z = readStr(t, b.String(), Options{}).Zones[0]
+	eqT(t, z.Types, field.Hexa)
+	eqI(t, "conn", z.Conn, []int32{0, 1, 3, 2, 4, 5, 7, 6})
+	eqF(t, "point 7", z.Points[21:], []float64{1, 2, 3})
+	eqF(t, "p", arr(t, z, "p", field.AtPoints, 1), []float64{0, 1, 2, 3, 4, 5, 6, 7.5})
 }
 
 // STRUCTURED_GRID: implicit hexahedra (i,j,k),(i+1,j,k),(i+1,j+1,k),
@@ -588,6 +599,13 @@ func TestUnsupportedAndBadCells(t *testing.T) {
 	e = readErr(t, fmt.Sprintf(base, "12"), Options{}, nil)
 	if !strings.Contains(e.Error(), "cell 1 of type HEXAHEDRON (12): 8 nodes, found 4 nodes") || e.Line != 7 {
 		t.Errorf("error %q (line %d)", e, e.Line)
+	}
+	// A polygon (7) needs at least 3 nodes; one with none is an error
+	// (classic layout: the entry "0").
+	zero := strings.Replace(strings.Replace(fmt.Sprintf(base, "7"), "CELLS 2 10", "CELLS 2 6", 1), "4 0 1 2 3\nCELL_TYPES", "0\nCELL_TYPES", 1)
+	e = readErr(t, zero, Options{}, nil)
+	if !strings.Contains(e.Error(), "cell 1 of type POLYGON (7): at least 3 nodes, found 0 nodes") {
+		t.Errorf("error %q", e)
 	}
 	bad := strings.Replace(fmt.Sprintf(base, "10"), "4 0 1 2 3\nCELL_TYPES", "4 0 1 2 4\nCELL_TYPES", 1)
 	e = readErr(t, bad, Options{}, nil)
@@ -966,3 +984,46 @@ func TestHugeDeclarations(t *testing.T) {
 }
 
 func readMem(m *runtime.MemStats) { runtime.ReadMemStats(m) }
+
+// Little-endian BINARY files (against the format's big-endian rule) are
+// recognised from the cell data (FORMATS.md §1.9) and read with a warning;
+// points read before the switch are reinterpreted.
+func TestLittleEndian(t *testing.T) {
+	le := binary.LittleEndian
+	for _, v5 := range []bool{false, true} {
+		var b bytes.Buffer
+		b.WriteString("# vtk DataFile Version 4.2\nle\nBINARY\nDATASET UNSTRUCTURED_GRID\nPOINTS 3 float\n")
+		for _, x := range []float32{0, 0, 0, 1, 0, 0, 0, 1, 0.5} {
+			b.Write(le.AppendUint32(nil, math.Float32bits(x)))
+		}
+		if v5 {
+			b.WriteString("\nCELLS 2 3\nOFFSETS vtktypeint64\n")
+			for i, x := range []uint64{0, 3, 0, 1, 2} {
+				b.Write(le.AppendUint64(nil, x))
+				if i == 1 {
+					b.WriteString("\nCONNECTIVITY vtktypeint64\n")
+				}
+			}
+		} else {
+			b.WriteString("\nCELLS 1 4\n")
+			for _, x := range []uint32{3, 0, 1, 2} {
+				b.Write(le.AppendUint32(nil, x))
+			}
+		}
+		b.WriteString("\nCELL_TYPES 1\n")
+		b.Write(le.AppendUint32(nil, 5))
+		b.WriteString("\nPOINT_DATA 3\nSCALARS p double\nLOOKUP_TABLE default\n")
+		for _, x := range []float64{1.5, -2, 1e-300} {
+			b.Write(le.AppendUint64(nil, math.Float64bits(x)))
+		}
+		f := readStr(t, b.String(), Options{})
+		z := f.Zones[0]
+		eqF(t, "points", z.Points, f32(0, 0, 0, 1, 0, 0, 0, 1, 0.5))
+		eqT(t, z.Types, field.Triangle)
+		eqI(t, "conn", z.Conn, []int32{0, 1, 2})
+		eqF(t, "p", arr(t, z, "p", field.AtPoints, 1), []float64{1.5, -2, 1e-300})
+		if len(f.Warnings) != 1 || !strings.Contains(f.Warnings[0], "little-endian") {
+			t.Errorf("warnings %q", f.Warnings)
+		}
+	}
+}

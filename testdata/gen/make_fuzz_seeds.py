@@ -71,6 +71,12 @@ def seeds():
                                "POLYGONS 2 3\nOFFSETS vtktypeint64\n0 3\nCONNECTIVITY vtktypeint64\n0 1 2\n").encode(),
         "ghost_levels_v3": ("# vtk DataFile Version 3.0\nseed\nASCII\nDATASET UNSTRUCTURED_GRID\n" + TET
                             + "CELL_DATA 1\nSCALARS vtkGhostLevels unsigned_char\nLOOKUP_TABLE default\n1\n").encode(),
+        # Regression: a 0-node POLYGONS cell in 5.1 (FuzzReadVTK found the
+        # reader accepting it into the zone).
+        "regress_zero_node_polygon": ("# vtk DataFile Version 5.1\nseed\nASCII\nDATASET POLYDATA\nPOINTS 3 float\n"
+                                      "0 0 0 1 0 0 0 1 0\nPOLYGONS 3 3\nOFFSETS vtktypeint64\n0 3 3\n"
+                                      "CONNECTIVITY vtktypeint64\n0 1 2\nCELL_DATA 2\nSCALARS c float\n"
+                                      "LOOKUP_TABLE default\n1 2\n").encode(),
         "bare_field": b"# vtk DataFile Version 4.2\nseed\nASCII\nFIELD FieldData 1\nx 1 2 float\n1 2\n",
         "binary_metadata": binary_tet_with_metadata(),
         "binary_little_endian": binary_little_endian(),

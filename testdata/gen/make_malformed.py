@@ -59,6 +59,10 @@ def ascii_cases():
         # --- topology
         "cell_index_range.vtk": HEAD42 + PTS4 + "CELLS 2 9\n4 0 1 2 3\n3 0 1 7\nCELL_TYPES 2\n10 5\n",
         "cell_index_negative.vtk": HEAD42 + PTS4 + "CELLS 1 4\n3 0 -1 2\nCELL_TYPES 1\n5\n",
+        # Variable-size cell types with no nodes (found by FuzzReadVTK).
+        "cell_zero_nodes_polygon.vtk": HEAD42 + PTS4 + "CELLS 2 5\n3 0 1 2\n0\nCELL_TYPES 2\n5 7\n",
+        "cell_zero_nodes_strip.vtk": HEAD42 + PTS4 + "CELLS 2 5\n3 0 1 2\n0\nCELL_TYPES 2\n5 6\n"
+        "CELL_DATA 2\nSCALARS c float\nLOOKUP_TABLE default\n1 2\n",
         "celltype_mismatch.vtk": HEAD42 + PTS4 + "CELLS 1 4\n3 0 1 2\nCELL_TYPES 1\n10\n",
         "celltype_unknown.vtk": HEAD42 + PTS4 + "CELLS 1 4\n3 0 1 2\nCELL_TYPES 1\n99\n",
         "celltype_polyhedron.vtk": HEAD42 + PTS4 + "CELLS 1 5\n4 0 1 2 3\nCELL_TYPES 1\n42\n",
