@@ -2,6 +2,7 @@ package integrate
 
 import (
 	"cmp"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -716,13 +717,38 @@ func (w *wall) loadSums(p, t *wallLoad, xc Vec3) NearResult {
 // NearFarDifference is the far-field minus the near-field result: force
 // (body axes), wind components, coefficients and drag counts (zero unless
 // both results have coefficients), and the drag difference in percent of
-// the near-field drag (zero when that drag is zero).
+// the near-field drag. HasDragPercent says whether that percentage is
+// defined (see DragPercentDefined); when it is not, DragPercent is zero and
+// the JSON form carries "drag_percent": null.
 type NearFarDifference struct {
-	Force        Vec3    `json:"force"`
-	Wind         Wind    `json:"wind"`
-	Coefficients Wind    `json:"coefficients"`
-	DragCounts   float64 `json:"drag_counts"`
-	DragPercent  float64 `json:"drag_percent"`
+	Force          Vec3    `json:"force"`
+	Wind           Wind    `json:"wind"`
+	Coefficients   Wind    `json:"coefficients"`
+	DragCounts     float64 `json:"drag_counts"`
+	DragPercent    float64 `json:"drag_percent"`
+	HasDragPercent bool    `json:"-"`
+}
+
+// MarshalJSON writes d with drag_percent null when it is undefined.
+func (d NearFarDifference) MarshalJSON() ([]byte, error) {
+	type plain NearFarDifference
+	out := struct {
+		plain
+		DragPercent *float64 `json:"drag_percent"`
+	}{plain: plain(d)}
+	if d.HasDragPercent {
+		out.DragPercent = &d.DragPercent
+	}
+	return json.Marshal(out)
+}
+
+// DragPercentDefined reports whether a difference in percent of the
+// near-field drag means something: not when that drag is zero to rounding,
+// at most 1e-9 of the force scale max(|F|, q∞·Area) (a body whose force is
+// all lift, or whose loads cancel, as potential-flow pressure does).
+func DragPercentDefined(near NearResult) bool {
+	scale := max(math.Sqrt(dot(near.Force, near.Force)), near.DynamicPressure*near.Area)
+	return near.HasWind && math.Abs(near.Wind.Drag) > 1e-9*scale
 }
 
 // CompareNearFar returns far − near. Both must come from the same Options
@@ -738,8 +764,9 @@ func CompareNearFar(far Result, near NearResult) NearFarDifference {
 		d.Coefficients = Wind{Drag: c.Drag - n.Drag, Lift: c.Lift - n.Lift, Side: c.Side - n.Side}
 		d.DragCounts = 1e4 * d.Coefficients.Drag
 	}
-	if near.Wind.Drag != 0 {
+	if DragPercentDefined(near) {
 		d.DragPercent = 100 * d.Wind.Drag / math.Abs(near.Wind.Drag)
+		d.HasDragPercent = true
 	}
 	return d
 }

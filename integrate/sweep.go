@@ -346,8 +346,15 @@ func verdictNotes(v *SweepVerdict, s []float64) []string {
 		if dr.Monotone {
 			how = "monotonically"
 		}
-		notes = append(notes, fmt.Sprintf("Drag drifts %s with surface size: slope %.4g per unit scale (± %.2g), a change of %.4g across the sweep against a scatter of %.3g. A drift usually means numerical dissipation in the wake (spurious drag added as the surfaces take in more, coarser cells) or a mass-closure error; it is not physics.",
-			how, dr.DragSlope, dr.DragSlopeErr, dr.Change, dr.Scatter))
+		// The likely cause depends on the sign: dissipation adds drag as
+		// larger surfaces take in more of the wake; a loss points at the
+		// wake's deficit being smeared or at mass leaving.
+		cause := "numerical dissipation in the wake (spurious drag added as the surfaces take in more, coarser cells) or a mass-closure error"
+		if dr.DragSlope < 0 {
+			cause = "drag lost as the surfaces reach coarser cells farther out, where the wake's momentum deficit is not carried faithfully (numerical dissipation, interpolation of a smeared wake), or a mass-closure error"
+		}
+		notes = append(notes, fmt.Sprintf("Drag drifts %s with surface size: slope %.4g per unit scale (± %.2g), a change of %.4g across the sweep against a scatter of %.3g. A drift usually means %s; it is not physics.",
+			how, dr.DragSlope, dr.DragSlopeErr, dr.Change, dr.Scatter, cause))
 		if math.Abs(v.MassDragCorrelation) > 0.9 {
 			notes = append(notes, fmt.Sprintf("The mass flux through the surfaces changes with size as well and follows the drag (correlation %.2f; imbalance trend %.3g per unit scale): the drift is most likely a mass error (interpolation, or mass sources in the field); compare the plain and deficit forms.",
 				v.MassDragCorrelation, v.MassTrend))

@@ -107,16 +107,18 @@ const (
 //	entropy         (Gamma set) Oswatitsch (T∞/U∞)∬ρuΔs dS = (p∞/(ρ∞U∞))∬ρu Δs/R dS
 //
 // ρ is the local density except in p₀∞. The plane should be normal to
-// V∞ (the formulas take u along the stream and integrate dS = W). Errors:
+// V∞ (the formulas take u along the stream and integrate dS = W); a tilt
+// of more than 2.6° is flagged. Errors: Plain or NoConvection set (the
+// plane is open: only the deficit flux accounts for the lateral outflow);
 // those of Forces; a freestream speed or density of zero; with Gamma, a
 // non-positive p∞, or a non-positive p or ρ at a point (*ValueError).
 // Deterministic for any number of workers.
 func Wake(c *surface.Cut, flow field.FlowEvaluator, opt WakeOptions) (WakeResult, error) {
-	mom, err := Forces(c, flow, opt.Options)
-	if err != nil {
+	if err := opt.checkWake(); err != nil {
 		return WakeResult{}, err
 	}
-	if err := opt.checkWake(); err != nil {
+	mom, err := Forces(c, flow, opt.Options)
+	if err != nil {
 		return WakeResult{}, err
 	}
 	r := WakeResult{Spec: c.Spec, Dim: c.Dim, Area: c.Area, Points: len(c.Points), Momentum: mom}
@@ -153,6 +155,11 @@ func Wake(c *surface.Cut, flow field.FlowEvaluator, opt WakeOptions) (WakeResult
 	if r.JonesClamped > 0 {
 		r.Flags = append(r.Flags, fmt.Sprintf("on %.3g of the plane a stream tube cannot expand to p∞ (p0 < p∞ or p0 < p): left out of the Jones integrals", r.JonesClamped))
 	}
+	if len(c.Points) > 0 {
+		if fl := tiltFlag(c.Points[0].N, opt.Free.V); fl != "" {
+			r.Flags = append(r.Flags, fl)
+		}
+	}
 	r.applyCoefficients(&opt.Options, c.Dim)
 	return r, nil
 }
@@ -176,6 +183,9 @@ func (r *WakeResult) applyCoefficients(opt *Options, dim int) {
 
 // checkWake validates the options the wake analyses add.
 func (o *WakeOptions) checkWake() error {
+	if o.Plain || o.NoConvection {
+		return fmt.Errorf("%w: the wake-plane formulas need the deficit momentum flux (Plain and NoConvection unset): the plane is open", ErrOption)
+	}
 	if !(norm(o.Free.V) > 0) || !(o.Free.Rho > 0) {
 		return fmt.Errorf("%w: the wake analyses need a freestream speed and density > 0 (got %g m/s, %g kg/m³)", ErrOption, norm(o.Free.V), o.Free.Rho)
 	}

@@ -55,7 +55,9 @@ type CrossflowResult struct {
 	Flags           []string `json:"flags"`
 }
 
-// Crossflow analyses the crossflow (v, w) = (V·E1, V·E2) sampled at the
+// Crossflow analyses the crossflow (v, w) = ((V − V∞)·E1, (V − V∞)·E2)
+// (the freestream's part drops out when the plane is normal to it, as it
+// should be; a tilt of more than 2.6° is flagged) sampled at the
 // points of g (VALIDATION §2.4–2.5, §3.6), with ρ∞ and U∞ = |V∞| from opt:
 //
 //   - energy form (ρ∞/2)∬(v²+w²)dS by the midpoint rule, plus the
@@ -101,7 +103,8 @@ func Crossflow(g *surface.PlaneGrid, flow field.FlowEvaluator, opt WakeOptions) 
 			if name, val, ok := checkState(&st); !ok {
 				return &ValueError{Spec: spec, Point: k, X: g.X[k], Cell: g.At[k].Ref(), Quantity: name, Value: val}
 			}
-			v[k], w[k] = dot(st.V, e1), dot(st.V, e2)
+			d := sub(st.V, opt.Free.V)
+			v[k], w[k] = dot(d, e1), dot(d, e2)
 		}
 		return nil
 	})
@@ -190,6 +193,9 @@ func Crossflow(g *surface.PlaneGrid, flow field.FlowEvaluator, opt WakeOptions) 
 	}
 	r.Lift = lift.value()
 	r.finish(&opt)
+	if fl := tiltFlag(g.Plane.Normal, opt.Free.V); fl != "" {
+		r.Flags = append(r.Flags, fl)
+	}
 	for _, x := range []float64{r.Energy, r.Tail, r.Maskell, r.Lift, r.NetCirculation, r.NetSource} {
 		if !finite(x) {
 			return CrossflowResult{}, fmt.Errorf("%w: wake plane %q: a crossflow integral is %g", ErrOverflow, spec, x)
@@ -321,4 +327,15 @@ func (r *WakeResult) AddCrossflow(cf CrossflowResult, opt *Options) {
 	)
 	r.Flags = append(r.Flags, cf.Flags...)
 	r.applyCoefficients(opt, r.Dim)
+}
+
+// tiltFlag returns a warning when the plane normal n is more than 2.6°
+// (cos > 0.999) away from the stream v, else "".
+func tiltFlag(n, v Vec3) string {
+	c := dot(n, v) / (norm(n) * norm(v))
+	if c >= 0.999 {
+		return ""
+	}
+	return fmt.Sprintf("the plane normal is %.1f° away from the freestream: the wake-plane formulas assume a plane normal to V∞ (give origin= and normal= along the stream)",
+		math.Acos(math.Max(-1, math.Min(1, c)))*180/math.Pi)
 }

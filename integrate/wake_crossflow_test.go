@@ -3,6 +3,7 @@ package integrate
 import (
 	"fmt"
 	"math"
+	"strings"
 	"testing"
 
 	"farforce/field"
@@ -134,5 +135,44 @@ func TestCrossflowCoefficients(t *testing.T) {
 	}
 	if got := cf.CL * cf.CL / (math.Pi * cf.SpanEfficiency * cf.AR); math.Abs(got-cf.CDi) > 1e-12*cf.CDi {
 		t.Errorf("C_L²/(π e AR) = %g, C_Di = %g", got, cf.CDi)
+	}
+}
+
+// TestTiltFlag checks that a plane 4° off the stream is flagged and one
+// normal to it is not.
+func TestTiltFlag(t *testing.T) {
+	opt := ellipseOpt()
+	if cf := ellipseCrossflow(t, 20, 8, opt); len(cf.Flags) != 0 {
+		t.Errorf("aligned plane flagged: %q", cf.Flags)
+	}
+	s, c := math.Sincos(4 * math.Pi / 180)
+	opt.Free.V = Vec3{50 * c, 0, 50 * s}
+	cf := ellipseCrossflow(t, 20, 8, opt)
+	if len(cf.Flags) != 1 || !strings.Contains(cf.Flags[0], "4.0°") {
+		t.Errorf("tilted plane flags %q", cf.Flags)
+	}
+}
+
+// TestRectExterior checks the closed form of ∬ r⁻⁴ dS outside a rectangle
+// against a polar midpoint quadrature of ∫ dθ/(2 r_edge(θ)²) (second
+// order; 2⁻¹⁶ steps give about 1e-10), and that a square lies between its
+// inscribed and circumscribed discs (π/R², VALIDATION §3.6's disc case).
+func TestRectExterior(t *testing.T) {
+	for _, ab := range [][2]float64{{2, 3}, {20, 20}, {1, 7}} {
+		a, b := ab[0], ab[1]
+		const n = 1 << 16
+		var s neumaier
+		for k := 0; k < n; k++ {
+			th := (float64(k) + 0.5) * 2 * math.Pi / n
+			c, sn := math.Abs(math.Cos(th)), math.Abs(math.Sin(th))
+			re := math.Min(a/math.Max(c, 1e-300), b/math.Max(sn, 1e-300))
+			s.add(1 / (2 * re * re) * 2 * math.Pi / n)
+		}
+		if got := rectExteriorR4(a, b); math.Abs(got-s.value()) > 1e-9*got {
+			t.Errorf("a=%g b=%g: closed form %.12g, quadrature %.12g", a, b, got, s.value())
+		}
+	}
+	if v := rectExteriorR4(3, 3); !(v < math.Pi/9 && v > math.Pi/18) {
+		t.Errorf("square of half-side 3: %g not between π/18 and π/9", v)
 	}
 }

@@ -22,7 +22,7 @@ const (
 
 // wakeCut2D samples the Gaussian wake at the points of an nx × ny quad
 // mesh of [49, 51] × [−10, 10] and cuts the line x = 50 through it.
-func wakeCut2D(t *testing.T, ny int) (*surface.Cut, field.FlowEvaluator) {
+func wakeCut2D(t testing.TB, ny int) (*surface.Cut, field.FlowEvaluator) {
 	t.Helper()
 	z := fieldtest.RectQuad([2]float64{49, -10}, [2]float64{51, 10}, [2]int{2, ny})
 	fieldtest.SampleFlow(z, gaussWake, field.AtPoints)
@@ -242,9 +242,138 @@ func TestWakeDeterministic(t *testing.T) {
 func TestWakeOptionErrors(t *testing.T) {
 	c, flow := wakeCut2D(t, 10)
 	for _, o := range []WakeOptions{wakeOpt(0, 1, 0), wakeOpt(1, 0, 0), {Options: wakeOpt(1, 1, 0).Options, Gamma: 0.5},
-		{Options: wakeOpt(1, 1, 0).Options, Gamma: 1.4}, {Options: wakeOpt(1, 1, 1).Options, Span: -1}} {
+		{Options: wakeOpt(1, 1, 0).Options, Gamma: 1.4}, {Options: wakeOpt(1, 1, 1).Options, Span: -1}, {Options: Options{Free: Freestream{V: Vec3{1, 0, 0}, Rho: 1}, Plain: true}}} {
 		if _, err := Wake(c, flow, o); err == nil {
 			t.Errorf("%+v: no error", o)
+		}
+	}
+}
+
+// boxWake is a synthetic 3D flow that is the freestream (U, 0, 0), p∞,
+// except for an axisymmetric deficit and a pressure dip that grow from
+// zero at x = 0 like x²: u = U − A(x/L)²e^(−r²/σ²), p = p∞ − P(x/L)²e^(−r²/σ²),
+// μ constant. It is not a solution of the flow equations; it serves the
+// algebraic identity of VALIDATION §2.1: on a box whose upstream and side
+// faces see the freestream (σ ≪ box half-width, so e^(−r²/σ²) < 1e-40
+// there), the closed-surface drag is the downstream face's, i.e. the
+// exact wake-plane momentum drag of that face.
+type boxWake struct{ U, A, P, L, Sigma, Rho, Mu float64 }
+
+func (f boxWake) EvalFlow(_ field.Location, x [3]float64, st *field.FlowState) {
+	r2 := x[1]*x[1] + x[2]*x[2]
+	e := math.Exp(-r2 / (f.Sigma * f.Sigma))
+	s := x[0] / f.L
+	*st = field.FlowState{Rho: f.Rho, Mu: f.Mu, P: 1e5 - f.P*s*s*e, V: [3]float64{f.U - f.A*s*s*e, 0, 0}}
+	st.GradV[0] = [3]float64{-2 * f.A * s / f.L * e, f.A * s * s * e * 2 * x[1] / (f.Sigma * f.Sigma), f.A * s * s * e * 2 * x[2] / (f.Sigma * f.Sigma)}
+}
+
+// TestWakePlaneIsClosedSurface checks that the exact wake-plane momentum
+// drag of the downstream face equals the closed-surface drag of the box
+// (to quadrature rounding, 1e-10 relative).
+func TestWakePlaneIsClosedSurface(t *testing.T) {
+	flow := boxWake{U: 20, A: 3, P: 40, L: 4, Sigma: 0.2, Rho: 1.2, Mu: 0.01}
+	z := fieldtest.BoxTet([3]float64{-1, -3, -3}, [3]float64{5, 3, 3}, [3]int{6, 6, 6})
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	box, err := surface.ParseSpec("box min=0,-2,-2 max=4,2,2")
+	if err != nil {
+		t.Fatal(err)
+	}
+	bc, err := surface.CutSurface(l, box, surface.CutOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	opt := WakeOptions{Options: Options{Free: Freestream{V: Vec3{20, 0, 0}, Rho: 1.2, P: 1e5}}}
+	closed, err := Forces(bc, flow, opt.Options)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := surface.ParsePlane("x=4 ymin=-2 ymax=2 zmin=-2 zmax=2")
+	if err != nil {
+		t.Fatal(err)
+	}
+	pc, _, err := surface.CutPlane(l, p, surface.CutOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Wake(pc, flow, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := mustDrag(t, &r, WakeMomentum)
+	if math.Abs(d-closed.Wind.Drag) > 1e-10*math.Abs(closed.Wind.Drag) || closed.Wind.Drag == 0 {
+		t.Errorf("wake-plane drag %.15g, closed box %.15g", d, closed.Wind.Drag)
+	}
+}
+
+// TestCrossflowDeterministic checks that the crossflow figures do not
+// depend on the number of workers.
+func TestCrossflowDeterministic(t *testing.T) {
+	var first CrossflowResult
+	for i, w := range []int{1, 3} {
+		opt := ellipseOpt()
+		opt.Workers = w
+		cf := ellipseCrossflow(t, 20, 40, opt)
+		if i == 0 {
+			first = cf
+			continue
+		}
+		if cf.Maskell != first.Maskell || cf.Lift != first.Lift || cf.Energy != first.Energy {
+			t.Errorf("workers %d: %v %v %v, want %v %v %v", w, cf.Maskell, cf.Lift, cf.Energy, first.Maskell, first.Lift, first.Energy)
+		}
+	}
+}
+
+// entropyWake is a 2D compressible test state at p = p∞ with uniform
+// total enthalpy: u = U(1 − a e^(−y²)) (a vortical wake, Shear = true) or
+// uniform u = U with the same temperature bump carried by a density dip
+// (no vorticity anywhere: entropy made away from any wake).
+type entropyWake struct {
+	U, A, Gamma, PInf, RhoInf float64
+	Shear                     bool
+}
+
+func (f entropyWake) EvalFlow(_ field.Location, x [3]float64, st *field.FlowState) {
+	e := math.Exp(-x[1] * x[1])
+	cp := f.Gamma / (f.Gamma - 1) * f.PInf / f.RhoInf
+	uw := f.U * (1 - f.A*e)
+	cpT := cp + f.U*f.U/2 - uw*uw/2
+	*st = field.FlowState{P: f.PInf, Rho: f.PInf / (cpT * (f.Gamma - 1) / f.Gamma), V: [3]float64{f.U, 0, 0}}
+	if f.Shear {
+		st.V[0] = uw
+		st.GradV[0][1] = f.U * f.A * 2 * x[1] * e
+	}
+}
+
+// TestEntropyAwayFlag checks the spurious-entropy flag: entropy carried
+// where there is no vorticity is flagged (all of it counts as away from
+// the wake), entropy inside a vortical wake is not.
+func TestEntropyAwayFlag(t *testing.T) {
+	z := fieldtest.RectQuad([2]float64{-1, -8}, [2]float64{1, 8}, [2]int{2, 40})
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, _ := surface.ParsePlane("x=0.5 ymin=-8 ymax=8")
+	c, _, err := surface.CutPlane(l, p, surface.CutOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	opt := WakeOptions{Options: Options{Free: Freestream{V: Vec3{100, 0, 0}, Rho: 1.2, P: 1e5}}, Gamma: 1.4}
+	for _, shear := range []bool{false, true} {
+		r, err := Wake(c, entropyWake{U: 100, A: 0.02, Gamma: 1.4, PInf: 1e5, RhoInf: 1.2, Shear: shear}, opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		ent := mustDrag(t, &r, WakeEntropy)
+		if !(ent > 0) {
+			t.Fatalf("shear %v: entropy drag %g", shear, ent)
+		}
+		away := r.EntropyAway / ent
+		if shear && (away > 0.01 || len(r.Flags) != 0) || !shear && (math.Abs(away-1) > 1e-12 || len(r.Flags) != 1) {
+			t.Errorf("shear %v: away fraction %g, flags %q", shear, away, r.Flags)
 		}
 	}
 }

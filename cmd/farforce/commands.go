@@ -38,7 +38,7 @@ type commandImpl interface {
 var commands []*command
 
 func init() {
-	commands = []*command{inspectCommand, forcesCommand, sweepCommand, wallCommand, checkCommand, demoCommand, versionCommand, helpCommand}
+	commands = []*command{inspectCommand, forcesCommand, sweepCommand, wallCommand, wakeCommand, checkCommand, convertCommand, demoCommand, versionCommand, helpCommand}
 }
 
 // findCommand returns the command called name, or nil.

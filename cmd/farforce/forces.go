@@ -35,7 +35,12 @@ body is an error (exit code 2), never a partial sum.
 
 The flow mapping is guessed from the array names (see 'farforce inspect');
 every flag below overrides it. NAME|VALUE flags take an array name or a
-constant in SI units. Every constant used is echoed in the report.`,
+constant in SI units. Every constant used is echoed in the report.
+
+With --wall FILE (a wall surface file) or --inside SPEC (the mesh boundary
+inside SPEC), see 'farforce wall', the near-field force on the body is
+computed too and each surface is compared with it: far minus near in
+coefficients, drag counts and percent of the near-field drag.`,
 	examples: []example{
 		{"farforce forces cyl.vtk --surface 'circle center=0.2,0.2 radius=0.1' --speed 0.2 --density 1 --viscosity 0.001 --ref-length 0.1",
 			"2D: drag and lift per unit span on a circle of radius 0.1, coefficients on a 0.1 m chord"},
@@ -43,6 +48,8 @@ constant in SI units. Every constant used is echoed in the report.`,
 			"3D at 4° angle of attack, machine-readable"},
 		{"farforce forces case.vtk --surface 'sphere center=0,0,0 radius=2' --surface 'sphere center=0,0,0 radius=4' --csv",
 			"two surfaces, one CSV row each"},
+		{"farforce forces cyl.vtk --surface 'circle center=0.2,0.2 radius=0.15' --wall cyl_wall.vtk --speed 0.2 --density 1 --viscosity 0.001 --ref-length 0.1",
+			"far field against the near field of a wall file"},
 		{"farforce forces stokes.vtk --surface 'sphere center=0,0,0 radius=3 facets=20000' --freestream-velocity 0,0,1 --no-convection",
 			"creeping flow: drop the momentum flux"},
 	},

@@ -150,7 +150,7 @@ func TestForcesPressureOnlyJSON(t *testing.T) {
 func TestForcesWorkersIdentical(t *testing.T) {
 	var outs []string
 	for _, w := range []string{"1", "2"} {
-		code, out, errs := runCmd(t, "forces", "testdata/strut.vtk", "--surface", "circle center=0,0 radius=0.3",
+		code, out, errs := runCmd(t, "forces", "testdata/strut.vtk.gz", "--surface", "circle center=0,0 radius=0.3",
 			"--density", "998.2", "--viscosity", "1.002e-3", "--speed", "1.5", "--ref-length", "0.1", "--csv", "--workers", w)
 		if code != exitOK {
 			t.Fatalf("workers %s: exit %d: %s", w, code, errs)

@@ -143,7 +143,7 @@ func evalGate(g *caseGate, r *caseRun) (gateResult, error) {
 		for _, s := range r.Sweeps {
 			if on(s.Name) && s.NearFar != nil {
 				v := math.Abs(s.NearFar.DragCounts)
-				add(s.Name, v, *g.Max, v <= *g.Max, fmt.Sprintf("%s: plateau - near = %s counts (%s %%), limit %s", s.Name, fixed(s.NearFar.DragCounts, 1), pct(s.NearFar.DragPercent, r.Near), num(*g.Max)))
+				add(s.Name, v, *g.Max, v <= *g.Max, fmt.Sprintf("%s: plateau - near = %s counts (%s %%), limit %s", s.Name, fixed(s.NearFar.DragCounts, 1), pctOf(s.NearFar.DragPercent), num(*g.Max)))
 			}
 		}
 	case "plateau-spread":

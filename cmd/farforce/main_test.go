@@ -179,21 +179,3 @@ func TestInspectJSON(t *testing.T) {
 		t.Errorf("mapping %+v, want U, p, solid", r.Mapping)
 	}
 }
-
-func TestDemo(t *testing.T) {
-	dir := t.TempDir()
-	code, out, errs := runCmd(t, "demo", "--dir", dir)
-	if code != exitOK {
-		t.Fatalf("exit %d: %s\n%s", code, errs, out)
-	}
-	for _, want := range []string{"invented", "strut", "farforce inspect", "Arrays", "farforce forces", "Surface 1: circle", "Surface 2: rect", "C_D", notice} {
-		if !strings.Contains(out, want) {
-			t.Errorf("demo output lacks %q", want)
-		}
-	}
-	for _, name := range []string{"strut.vtk", "strut-surface.vtk", "strut-surface-2.vtk"} {
-		if _, err := os.Stat(filepath.Join(dir, name)); err != nil {
-			t.Errorf("demo file not written: %v", err)
-		}
-	}
-}

@@ -3,7 +3,6 @@ package main
 import (
 	"errors"
 	"fmt"
-	"math"
 	"strings"
 
 	"github.com/spf13/pflag"
@@ -192,7 +191,7 @@ func (n *nearFlags) fromVolume(p *preparedFlow) (*nearReport, error) {
 		return nil, err
 	}
 	f := p.loc.Field()
-	in, err := newInsideTest(s, f, p.loc.Dim())
+	in, err := newInsideTest(s, p.loc.Dim())
 	if err != nil {
 		return nil, inputErr(fmt.Errorf("--inside %q: %w", n.inside, err))
 	}
@@ -223,85 +222,15 @@ func (n *nearFlags) compute(p *preparedFlow) (*nearReport, error) {
 	return nil, nil
 }
 
-// insideTest tells whether a point lies inside a closed shape, by the
-// winding number of the shape's tessellation about the point: the sum of
-// the angles (2D) or solid angles (3D) its facets subtend, over 2π (4π),
-// is 1 inside and 0 outside. Points farther out than the facets' bounding
-// box are outside at once.
-type insideTest struct {
-	f      *surface.Facets
-	lo, hi [3]float64
-}
-
-// insideFacets is the facet count of the tessellation used by the inside
-// test when the spec does not fix one: fine enough that the polygonal
-// shape differs from a circle or sphere by well under a cell near a body.
-const insideFacets2D, insideFacets3D = 2048, 8192
-
-// newInsideTest tessellates s for the inside test on field f of dimension
-// dim.
-func newInsideTest(s surface.Shape, f *field.Field, dim int) (func(p [3]float64) bool, error) {
+// newInsideTest returns the inside test of shape s (its Contains method)
+// for a field of dimension dim.
+func newInsideTest(s surface.Shape, dim int) (func(p [3]float64) bool, error) {
 	if s.Dim() != dim {
 		return nil, fmt.Errorf("the shape is %dD but the field is %dD", s.Dim(), dim)
 	}
-	area := s.ExactArea()
-	h := area / insideFacets2D
-	if dim == 3 {
-		h = math.Sqrt(area / (0.43 * insideFacets3D)) // a triangle of edge h covers ≈ 0.43 h²
+	c, ok := s.(interface{ Contains(p [3]float64) bool })
+	if !ok {
+		return nil, fmt.Errorf("shape %s has no inside test", s)
 	}
-	z0 := 0.0
-	if dim == 2 && f.NumPoints() > 0 {
-		z0 = f.Zones[0].Points[2]
-	}
-	facets, err := s.Tessellate(func([3]float64) float64 { return h }, z0)
-	if err != nil {
-		return nil, err
-	}
-	t := &insideTest{f: facets}
-	t.lo, t.hi = facets.Verts[0], facets.Verts[0]
-	for _, v := range facets.Verts {
-		for k := 0; k < 3; k++ {
-			t.lo[k], t.hi[k] = min(t.lo[k], v[k]), max(t.hi[k], v[k])
-		}
-	}
-	return t.contains, nil
-}
-
-// contains reports whether p is inside (winding number above ½).
-func (t *insideTest) contains(p [3]float64) bool {
-	for k := 0; k < t.f.Dim; k++ {
-		if p[k] < t.lo[k] || p[k] > t.hi[k] {
-			return false
-		}
-	}
-	sum := 0.0
-	for i := 0; i < t.f.Len(); i++ {
-		v := t.f.Facet(i)
-		if t.f.Dim == 2 {
-			ax, ay := v[0][0]-p[0], v[0][1]-p[1]
-			bx, by := v[1][0]-p[0], v[1][1]-p[1]
-			sum += math.Atan2(ax*by-ay*bx, ax*bx+ay*by)
-			continue
-		}
-		sum += solidAngle(sub3(v[0], p), sub3(v[1], p), sub3(v[2], p))
-	}
-	full := 2 * math.Pi
-	if t.f.Dim == 3 {
-		full = 4 * math.Pi
-	}
-	w := sum / full
-	return w > 0.5 || w < -0.5
-}
-
-func sub3(a, b [3]float64) [3]float64 { return [3]float64{a[0] - b[0], a[1] - b[1], a[2] - b[2]} }
-
-// solidAngle is the signed solid angle of the triangle (a, b, c) seen from
-// the origin (Van Oosterom & Strackee 1983, IEEE Trans. Biomed. Eng.
-// 30(2):125-126):
-// tan(Ω/2) = a·(b×c) / (|a||b||c| + (a·b)|c| + (a·c)|b| + (b·c)|a|).
-func solidAngle(a, b, c [3]float64) float64 {
-	la, lb, lc := math.Sqrt(dot(a, a)), math.Sqrt(dot(b, b)), math.Sqrt(dot(c, c))
-	num := a[0]*(b[1]*c[2]-b[2]*c[1]) + a[1]*(b[2]*c[0]-b[0]*c[2]) + a[2]*(b[0]*c[1]-b[1]*c[0])
-	den := la*lb*lc + dot(a, b)*lc + dot(a, c)*lb + dot(b, c)*la
-	return 2 * math.Atan2(num, den)
+	return c.Contains, nil
 }

@@ -64,7 +64,11 @@ var nearDiffHeader = []string{"near_diff_drag", "near_diff_lift", "near_diff_cou
 // nearDiffCells returns the far − near CSV cells of d.
 func nearDiffCells(d *integrate.NearFarDifference) []string {
 	g := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
-	return []string{g(d.Wind.Drag), g(d.Wind.Lift), g(d.DragCounts), g(d.DragPercent)}
+	percent := "" // undefined: see integrate.DragPercentDefined
+	if d.HasDragPercent {
+		percent = g(d.DragPercent)
+	}
+	return []string{g(d.Wind.Drag), g(d.Wind.Lift), g(d.DragCounts), percent}
 }
 
 // writeForcesNearCSV prints the forces CSV with the far − near columns.

@@ -240,10 +240,10 @@ type sweepMember struct {
 // of the verdict's quantity (coefficients, or forces without references),
 // drag counts (with coefficients) and drag percent of the near field.
 type plateauNear struct {
-	Drag        float64 `json:"drag"`
-	Lift        float64 `json:"lift"`
-	DragCounts  float64 `json:"drag_counts"`
-	DragPercent float64 `json:"drag_percent"`
+	Drag        float64  `json:"drag"`
+	Lift        float64  `json:"lift"`
+	DragCounts  float64  `json:"drag_counts"`
+	DragPercent *float64 `json:"drag_percent"` // nil (null) when undefined: see integrate.DragPercentDefined
 }
 
 // sweepResult is a computed sweep and its verdict. Quantity says what
@@ -326,7 +326,8 @@ func comparePlateau(sw *sweepResult, near *nearReport) *plateauNear {
 		d.DragCounts = 1e4 * d.Drag
 	}
 	if percentMeaningful(near) {
-		d.DragPercent = 100 * d.Drag / math.Abs(nd)
+		p := 100 * d.Drag / math.Abs(nd)
+		d.DragPercent = &p
 	}
 	return d
 }

@@ -143,9 +143,9 @@ func writeVerdictText(w io.Writer, s *sweepResult, near *nearReport, f func(floa
 	if s.NearFar != nil {
 		if s.coefficients() {
 			t.add("plateau - near field", fmt.Sprintf("ΔC_D %s (%s counts, %s %%), ΔC_L %s",
-				fixed(s.NearFar.Drag, 6), fixed(s.NearFar.DragCounts, 1), pct(s.NearFar.DragPercent, near), fixed(s.NearFar.Lift, 6)))
+				fixed(s.NearFar.Drag, 6), fixed(s.NearFar.DragCounts, 1), pctOf(s.NearFar.DragPercent), fixed(s.NearFar.Lift, 6)))
 		} else {
-			t.add("plateau - near field", fmt.Sprintf("Δdrag %s (%s %%), Δlift %s", num(s.NearFar.Drag), pct(s.NearFar.DragPercent, near), num(s.NearFar.Lift)))
+			t.add("plateau - near field", fmt.Sprintf("Δdrag %s (%s %%), Δlift %s", num(s.NearFar.Drag), pctOf(s.NearFar.DragPercent), num(s.NearFar.Lift)))
 		}
 	}
 	t.write(w)

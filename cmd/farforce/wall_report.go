@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"io"
-	"math"
 	"sort"
 	"strings"
 
@@ -135,7 +134,15 @@ func pct(p float64, near *nearReport) string {
 // means something: not when the drag is zero to rounding (below 1e-9 of
 // the force: a body whose force is all lift).
 func percentMeaningful(near *nearReport) bool {
-	return near != nil && math.Abs(near.Wind.Drag) > 1e-9*norm(near.Force)
+	return near != nil && integrate.DragPercentDefined(near.NearResult)
+}
+
+// pctOf formats an optional percentage: "n/a" when nil.
+func pctOf(p *float64) string {
+	if p == nil {
+		return "n/a"
+	}
+	return fixed(*p, 2)
 }
 
 // writeNearFarText prints far minus near for one far-field value.
