@@ -52,7 +52,7 @@ func benchmarkBuild(b *testing.B, name string) {
 	}
 	cells := float64(b.N) * float64(z.NumCells())
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/cells, "ns/cell")
-	b.ReportMetric(float64((processCPU() - cpu0).Nanoseconds())/cells, "cpu-ns/cell")
+	b.ReportMetric(float64((processCPU()-cpu0).Nanoseconds())/cells, "cpu-ns/cell")
 	b.ReportMetric(cells/b.Elapsed().Seconds(), "cells/s")
 }
 
@@ -102,3 +102,61 @@ func BenchmarkLocateHexaRandom(b *testing.B)    { benchmarkLocate(b, "hexa", fal
 func BenchmarkLocateTetraRandom(b *testing.B)   { benchmarkLocate(b, "tetra", false) }
 func BenchmarkLocateHexaCoherent(b *testing.B)  { benchmarkLocate(b, "hexa", true) }
 func BenchmarkLocateTetraCoherent(b *testing.B) { benchmarkLocate(b, "tetra", true) }
+
+// benchmarkSample times Value plus Gradient of a scalar at 4096 random
+// located points of a perturbed 40³ hexahedral box, with the per-cell or
+// per-node fits already built (warm) or built during the pass (cold: a new
+// Sampler per pass, so every fit the points need is computed once).
+func benchmarkSample(b *testing.B, at field.Centering, cold bool) {
+	z := fieldtest.BoxHex(unitLo, unitHi, [3]int{40, 40, 40})
+	fieldtest.Perturb(z, 0.1/40, 3)
+	fn := func(x [3]float64, dst []float64) { dst[0], _ = smooth(x) }
+	if at == field.AtCells {
+		fieldtest.SampleCells(z, "f", 1, fn)
+	} else {
+		fieldtest.SamplePoints(z, "f", 1, fn)
+	}
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
+	if err != nil {
+		b.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(5, 6))
+	_, locs := randomInside(b, l, rng, 4096)
+	v, g := make([]float64, 1), make([]float64, 3)
+	newSampler := func() (*field.Sampler, field.ArrayID) {
+		s := field.NewSampler(l)
+		id, err := s.Prepare("f")
+		if err != nil {
+			b.Fatal(err)
+		}
+		return s, id
+	}
+	s, id := newSampler()
+	for _, loc := range locs {
+		s.Gradient(id, loc, g)
+	}
+	runtime.LockOSThread()
+	defer runtime.UnlockOSThread()
+	b.ReportAllocs()
+	cpu0 := threadCPU()
+	b.ResetTimer()
+	for b.Loop() {
+		if cold {
+			b.StopTimer()
+			s, id = newSampler()
+			b.StartTimer()
+		}
+		for _, loc := range locs {
+			s.Value(id, loc, v)
+			s.Gradient(id, loc, g)
+		}
+	}
+	n := float64(b.N * len(locs))
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/n, "ns/sample")
+	b.ReportMetric(float64((threadCPU()-cpu0).Nanoseconds())/n, "cpu-ns/sample")
+}
+
+func BenchmarkSamplePointDataWarm(b *testing.B) { benchmarkSample(b, field.AtPoints, false) }
+func BenchmarkSamplePointDataCold(b *testing.B) { benchmarkSample(b, field.AtPoints, true) }
+func BenchmarkSampleCellDataWarm(b *testing.B)  { benchmarkSample(b, field.AtCells, false) }
+func BenchmarkSampleCellDataCold(b *testing.B)  { benchmarkSample(b, field.AtCells, true) }

@@ -99,22 +99,40 @@ func (p *polyFit) gradient(x [3]float64, dst []float64) {
 	}
 }
 
+// centreGradient stores in dst[3*c+j] the gradient of the fit at its centre
+// x0, where only the linear terms contribute.
+func (p *polyFit) centreGradient(dst []float64) {
+	for c := 0; c < p.comps; c++ {
+		for j := 0; j < 3; j++ {
+			v := 0.0
+			if j < p.dim && p.terms > 1 {
+				v = p.coef[(1+j)*p.comps+c] / p.h[j]
+			}
+			dst[3*c+j] = v
+		}
+	}
+}
+
 // fitStencil fits a polynomial of degree deg to m samples at points pts with
 // values vals (m×comps, interleaved), centred on x0 and scaled by h (per
-// axis, all > 0). ok is false when the stencil does not determine the
-// polynomial: fewer points than terms, or a geometry so close to degenerate
-// that, with the columns of the least-squares matrix scaled to unit norm,
-// the smallest |R_ii| of its QR factor is below tol times the largest.
+// axis, all > 0). With vals nil it returns instead the fit operator: a fit
+// of comps = m components whose coefficients coef[t*m+i] map sample values
+// to coefficients, coef_t = Σ_i coef[t*m+i] v_i. ok is false when the
+// stencil does not determine the polynomial: fewer points than terms, or a
+// geometry so close to degenerate that, with the columns of the
+// least-squares matrix scaled to unit norm, the smallest |R_ii| of its QR
+// factor is below tol times the largest.
 func fitStencil(dim, deg int, x0, h [3]float64, pts [][3]float64, vals []float64, comps int, tol float64) (polyFit, bool) {
 	n := numTerms(dim, deg)
 	m := len(pts)
+	if vals == nil {
+		comps = m
+	}
 	fit := polyFit{dim: dim, terms: n, comps: comps, x0: x0, h: h}
 	if m < n {
 		return fit, false
 	}
 	A := make([]float64, m*n)
-	B := make([]float64, m*comps)
-	copy(B, vals)
 	for i, x := range pts {
 		basisRow(dim, fit.scaled(x), A[i*n:(i+1)*n])
 	}
@@ -124,19 +142,27 @@ func fitStencil(dim, deg int, x0, h [3]float64, pts [][3]float64, vals []float64
 	for j := 0; j < n; j++ {
 		s := 0.0
 		for i := 0; i < m; i++ {
-			s = math.Hypot(s, A[i*n+j])
+			s += A[i*n+j] * A[i*n+j]
 		}
 		if s == 0 {
 			return fit, false
 		}
-		colScale[j] = 1 / s
+		colScale[j] = 1 / math.Sqrt(s)
 		for i := 0; i < m; i++ {
 			A[i*n+j] *= colScale[j]
 		}
 	}
 	fit.coef = make([]float64, n*comps)
-	if !lsqSolve(A, m, n, B, comps, fit.coef, tol) {
-		return fit, false
+	if vals == nil {
+		if !lsqOperator(A, m, n, fit.coef, tol) {
+			return fit, false
+		}
+	} else {
+		B := make([]float64, m*comps)
+		copy(B, vals)
+		if !lsqSolve(A, m, n, B, comps, fit.coef, tol) {
+			return fit, false
+		}
 	}
 	for j := 0; j < n; j++ {
 		for c := 0; c < comps; c++ {
@@ -146,18 +172,75 @@ func fitStencil(dim, deg int, x0, h [3]float64, pts [][3]float64, vals []float64
 	return fit, true
 }
 
+// lsqOperator stores in W (n×m) the least-squares operator of A (m×n,
+// row-major, overwritten): W = (AᵀA)⁻¹Aᵀ = R⁻¹R⁻ᵀAᵀ with R from the
+// Householder QR of A (semi-normal equations; A is equilibrated and
+// well-posed, so the squared condition number stays far from rounding
+// trouble). It returns false when A is rank deficient at tolerance tol.
+func lsqOperator(A []float64, m, n int, W []float64, tol float64) bool {
+	At := make([]float64, m*n)
+	copy(At, A)
+	diag, ok := householder(A, m, n, nil, 0, tol)
+	if !ok {
+		return false
+	}
+	var y [10]float64
+	for i := 0; i < m; i++ {
+		a := At[i*n : (i+1)*n]
+		// Rᵀ y = a (forward), then R z = y (backward); z is column i of W.
+		for j := 0; j < n; j++ {
+			s := a[j]
+			for t := 0; t < j; t++ {
+				s -= A[t*n+j] * y[t]
+			}
+			y[j] = s / diag[j]
+		}
+		for j := n - 1; j >= 0; j-- {
+			s := y[j]
+			for t := j + 1; t < n; t++ {
+				s -= A[j*n+t] * W[t*m+i]
+			}
+			W[j*m+i] = s / diag[j]
+		}
+	}
+	return true
+}
+
 // lsqSolve solves the least-squares problem min ||A X - B|| for X (n×k) by
 // Householder QR. A (m×n) and B (m×k) are row-major and overwritten. It
 // returns false when A is rank deficient at tolerance tol (see fitStencil).
 func lsqSolve(A []float64, m, n int, B []float64, k int, X []float64, tol float64) bool {
-	diag := make([]float64, n)
-	for j := 0; j < n; j++ {
-		norm := 0.0
-		for i := j; i < m; i++ {
-			norm = math.Hypot(norm, A[i*n+j])
+	diag, ok := householder(A, m, n, B, k, tol)
+	if !ok {
+		return false
+	}
+	// Back substitution R X = Qᵀ B (first n rows).
+	for c := 0; c < k; c++ {
+		for j := n - 1; j >= 0; j-- {
+			s := B[j*k+c]
+			for t := j + 1; t < n; t++ {
+				s -= A[j*n+t] * X[t*k+c]
+			}
+			X[j*k+c] = s / diag[j]
 		}
+	}
+	return true
+}
+
+// householder reduces A (m×n) to R by Householder reflections, applying
+// them to B (m×k) too: on return the strict upper triangle of A's first n
+// rows holds R above its diagonal, and diag holds R_jj. ok is false when
+// the smallest |R_jj| is below tol times the largest.
+func householder(A []float64, m, n int, B []float64, k int, tol float64) (diag []float64, ok bool) {
+	diag = make([]float64, n)
+	for j := 0; j < n; j++ {
+		norm := 0.0 // entries are O(1) after equilibration: no overflow
+		for i := j; i < m; i++ {
+			norm += A[i*n+j] * A[i*n+j]
+		}
+		norm = math.Sqrt(norm)
 		if norm == 0 {
-			return false
+			return nil, false
 		}
 		alpha := -math.Copysign(norm, A[j*n+j])
 		// v = x - alpha e1 stored in A[j:,j]; R_jj = alpha.
@@ -197,18 +280,8 @@ func lsqSolve(A []float64, m, n int, B []float64, k int, X []float64, tol float6
 	}
 	for _, d := range diag {
 		if !(math.Abs(d) > tol*big) {
-			return false
+			return nil, false
 		}
 	}
-	// Back substitution R X = Qᵀ B (first n rows).
-	for c := 0; c < k; c++ {
-		for j := n - 1; j >= 0; j-- {
-			s := B[j*k+c]
-			for t := j + 1; t < n; t++ {
-				s -= A[j*n+t] * X[t*k+c]
-			}
-			X[j*k+c] = s / diag[j]
-		}
-	}
-	return true
+	return diag, true
 }

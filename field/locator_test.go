@@ -52,7 +52,7 @@ func TestLocateMatchesBruteForce(t *testing.T) {
 	for _, mc := range meshCases {
 		t.Run(mc.name, func(t *testing.T) {
 			z := mc.build(4)
-			fieldtest.Perturb(z, 0.04, 7) // spacing 0.25: cells stay valid
+			fieldtest.Perturb(z, 0.055, 7) // up to 0.22 h: strongly distorted, still valid
 			l := mustLocator(t, z)
 			rng := rand.New(rand.NewPCG(11, 12))
 			found, outside := 0, 0
@@ -66,6 +66,12 @@ func TestLocateMatchesBruteForce(t *testing.T) {
 					found++
 				} else {
 					outside++
+					// The cells tile the box exactly (boundary nodes stay):
+					// a point inside must be found, or the inverse map
+					// failed on a distorted cell.
+					if inside(p, mc.dim, 1e-12) {
+						t.Fatalf("point %v inside the box not located", p)
+					}
 				}
 			}
 			if found == 0 || outside == 0 {
@@ -191,6 +197,16 @@ func TestCellsInBox(t *testing.T) {
 	}
 }
 
+// inside reports whether p lies in [0,1]^dim at least tol from its faces.
+func inside(p [3]float64, dim int, tol float64) bool {
+	for k := 0; k < dim; k++ {
+		if p[k] < tol || p[k] > 1-tol {
+			return false
+		}
+	}
+	return true
+}
+
 func cmpRef(a, b field.CellRef) int {
 	if a.Zone != b.Zone {
 		return int(a.Zone - b.Zone)
@@ -254,4 +270,105 @@ func TestNewLocatorErrors(t *testing.T) {
 	if err == nil || !strings.Contains(err.Error(), "point 4") {
 		t.Fatalf("NaN point: err = %v", err)
 	}
+}
+
+// Exact: degenerate queries. A NaN point is in no cell; an InCell with a
+// reference to no cell, or to a cell without shape functions, is false; in
+// 2D the z coordinate of a query is ignored; an inverted box is empty.
+func TestLocatorDegenerateQueries(t *testing.T) {
+	l := mustLocator(t, fieldtest.BoxHex(unitLo, unitHi, [3]int{2, 2, 2}))
+	if _, ok := l.Locate([3]float64{math.NaN(), 0.5, 0.5}); ok {
+		t.Error("NaN located")
+	}
+	for _, r := range []field.CellRef{{Zone: 1}, {Zone: -1}, {Cell: 8}, {Cell: -1}} {
+		if _, ok := l.InCell(r, [3]float64{0.1, 0.1, 0.1}); ok {
+			t.Errorf("InCell(%+v) ok", r)
+		}
+	}
+	if got := l.CellsInBox([3]float64{1, 0, 0}, [3]float64{0, 1, 1}, nil); len(got) != 0 {
+		t.Errorf("inverted box: %v", got)
+	}
+	z := fieldtest.Annulus(0.5, 0.5, 0.1, 0.4, 6, 24)
+	for i := 2; i < len(z.Points); i += 3 {
+		z.Points[i] = 7 // the plane z = 7
+	}
+	z.AddCell(field.Line, 0, 1) // not indexed: lower dimension
+	l = mustLocator(t, z)
+	if l.Dim() != 2 {
+		t.Fatalf("Dim = %d", l.Dim())
+	}
+	rng := rand.New(rand.NewPCG(17, 18))
+	for _, p := range probePoints(z, 2, rng, 2000) {
+		q := p
+		q[2] = -100 * rng.Float64()
+		got, ok := l.Locate(q)
+		want, wok := bruteLocate(l, p)
+		if ok != wok || got != want {
+			t.Fatalf("annulus point %v: Locate = %+v,%v; brute force %+v,%v", q, got, ok, want, wok)
+		}
+	}
+	if got := l.CellsInBox([3]float64{0.45, 0.05, 100}, [3]float64{0.55, 0.15, 100}, nil); len(got) == 0 {
+		t.Error("2D CellsInBox must ignore z")
+	}
+}
+
+// Reference: outside the mesh, CellSize is the mean edge length of a cell
+// whose bounding box is nearest, as found by brute force over all cells.
+func TestCellSizeNearestMatchesBruteForce(t *testing.T) {
+	for _, mc := range meshCases {
+		z := mc.build(5)
+		fieldtest.Perturb(z, 0.05, 19)
+		l := mustLocator(t, z)
+		rng := rand.New(rand.NewPCG(20, 21))
+		for trial := 0; trial < 200; trial++ {
+			var p [3]float64
+			for k := 0; k < mc.dim; k++ {
+				p[k] = -1 + 3*rng.Float64()
+			}
+			if _, ok := l.Locate(p); ok {
+				continue
+			}
+			dist := make([]float64, z.NumCells())
+			bestD := math.Inf(1)
+			for c := range dist {
+				lo, hi := bounds(z, c)
+				for k := 0; k < mc.dim; k++ {
+					e := max(lo[k]-p[k], p[k]-hi[k], 0)
+					dist[c] += e * e
+				}
+				bestD = min(bestD, dist[c])
+			}
+			// Boxes at equal distance (common beside a flat boundary) are
+			// told apart only by their 1e-8 padding: accept any of them.
+			got, match := l.CellSize(p), false
+			for c, d := range dist {
+				if d <= bestD+1e-6*(1+bestD) && math.Abs(got-meanEdge(z, c)) < 1e-12 {
+					match = true
+				}
+			}
+			if !match {
+				t.Fatalf("%s: CellSize(%v) = %v matches no nearest cell", mc.name, p, got)
+			}
+		}
+	}
+}
+
+// meanEdge returns the mean length over the face sides of cell c (each edge
+// of a volume cell is counted twice, once per face; a 2D cell's faces are
+// its edges).
+func meanEdge(z *field.Zone, c int) float64 {
+	nodes := z.CellNodes(c)
+	sum, n := 0.0, 0
+	for _, f := range z.Types[c].Faces() {
+		sides := len(f)
+		if sides == 2 {
+			sides = 1
+		}
+		for i := 0; i < sides; i++ {
+			a, b := z.Point(nodes[f[i]]), z.Point(nodes[f[(i+1)%len(f)]])
+			sum += math.Sqrt((a[0]-b[0])*(a[0]-b[0]) + (a[1]-b[1])*(a[1]-b[1]) + (a[2]-b[2])*(a[2]-b[2]))
+			n++
+		}
+	}
+	return sum / float64(n)
 }

@@ -3,110 +3,162 @@ package field
 import "math"
 
 // Cell-data reconstruction. A finite-volume solver stores one value per
-// cell, close to the value at the cell centroid. For each cell c the
-// reconstruction is the least-squares quadratic (package fit.go basis)
-// through the centroid values of the cells around c:
+// cell: its average, equal to the value at the volume centroid to second
+// order (Zone.CellCentroid). For each cell c the reconstruction is the
+// least-squares quadratic (basis in fit.go) through the values at the
+// volume centroids x_j of the cells around c:
 //
 //	q_c = argmin Σ_{j ∈ S(c)} (q(x_j) - f_j)²
 //
-// over the stencil S(c): c and every indexed cell whose bounding box touches
-// c's (its vertex neighbours, across zone interfaces too, blank cells never).
-// Where S(c) holds fewer than 1.5 times the number of coefficients, or does
-// not determine a quadratic (at boundaries and corners: too few cells, or
-// only two layers of centroids across the boundary), the search box grows
-// by the cell's extent, up to maxGrow times. When even the largest stencil
-// leaves the quadratic undetermined the fit falls back to a linear one, then
-// to a constant. Value and gradient at a point of c are
-// those of q_c: a quadratic is reproduced exactly, so on smooth data the
-// value error is O(h³) and the gradient error O(h²) (measured orders in
-// doc.go).
+// over the stencil S(c): c and every indexed cell sharing a node with it
+// (its vertex neighbours, across zone interfaces too, blank cells never;
+// see stencil.go). Where S(c) holds fewer than 1.5 times the number of
+// coefficients, or does not determine a quadratic well (at boundaries and
+// corners: too few cells, or only two layers of centroids across the
+// boundary), the next ring of vertex neighbours joins, up to maxGrow
+// times. When even the largest stencil leaves the quadratic undetermined
+// the fit falls back to a linear one, then to a constant. Value and
+// gradient at a point of c are those of q_c: a quadratic is reproduced
+// exactly, so on smooth data the value error is O(h³) and the gradient
+// error O(h²) (measured orders in doc.go).
 
 // wellPosed is the conditioning a stencil must reach (smallest over largest
-// diagonal entry of the QR factor, coordinates scaled to the cell) before
-// growFit stops growing it; nearly degenerate stencils (two slightly
+// diagonal entry of the QR factor, columns equilibrated) before growOp
+// stops growing it; nearly degenerate stencils (two slightly
 // perturbed layers of points) amplify data errors by its inverse.
 const wellPosed = 5e-2
 
 // rankTol is the conditioning below which a fit counts as undetermined.
 const rankTol = 1e-8
 
-// maxGrow bounds how often a stencil search box is enlarged.
+// maxGrow bounds how often a stencil grows by a ring of neighbours.
 const maxGrow = 3
 
-// minSamples is the stencil size at which a quadratic fit stops growing its
-// search box: 1.5 times the number of quadratic terms, enough for a
-// well-posed fit on one-sided stencils.
+// minSamples is the stencil size from which a quadratic fit is tried: 1.5
+// times the number of quadratic terms, enough for a well-posed fit on
+// one-sided stencils.
 func minSamples(dim int) int { return numTerms(dim, 2) * 3 / 2 }
 
-// cellFit returns the cached reconstruction of cell c of zone zi, building
-// it on first use.
+// cellFit returns the cached reconstruction of cell c of zone zi for array
+// p, building it on first use from the cell's stencil operator.
 func (s *Sampler) cellFit(p *prepared, zi, c int) *polyFit {
 	slot := &p.cache[zi][c]
 	if f := slot.Load(); f != nil {
 		return f
 	}
-	f := s.buildCellFit(p, zi, c)
+	f := s.cellOp(zi, c).apply(p.data, p.comps)
 	slot.Store(f)
 	return f
 }
 
-func (s *Sampler) buildCellFit(p *prepared, zi, c int) *polyFit {
+// cellOp returns the cached stencil operator of cell c of zone zi, shared
+// by all cell arrays.
+func (s *Sampler) cellOp(zi, c int) *stencilOp {
+	slot := &s.cellOps[zi][c]
+	if op := slot.Load(); op != nil {
+		return op
+	}
+	op := s.buildCellOp(zi, c)
+	slot.Store(op)
+	return op
+}
+
+func (s *Sampler) buildCellOp(zi, c int) *stencilOp {
 	l := s.l
 	z := l.f.Zones[zi]
-	x0 := z.Centroid(c)
+	x0 := s.centroid(zi, c)
 	lo, hi := z.cellBounds(c)
 	h := halfExtents(l.dim, lo, hi)
-	var refs []CellRef
+	refs := []CellRef{{int32(zi), int32(c)}}
+	var next []CellRef
 	var pts [][3]float64
-	var vals []float64
-	return growFit(l.dim, x0, h, p.comps, func(grow int) ([][3]float64, []float64) {
-		var qlo, qhi [3]float64
-		for k := 0; k < 3; k++ {
-			qlo[k], qhi[k] = lo[k]-float64(grow)*2*h[k], hi[k]+float64(grow)*2*h[k]
-		}
-		refs = l.CellsInBox(qlo, qhi, refs[:0])
-		pts, vals = pts[:0], vals[:0]
+	var ids []sampleRef
+	return growOp(l.dim, x0, h, func(int) ([][3]float64, []sampleRef) {
+		next = l.expandRing(refs, next)
+		refs, next = next, refs
+		pts, ids = pts[:0], ids[:0]
 		for _, r := range refs {
-			pts = append(pts, l.f.Zones[r.Zone].Centroid(int(r.Cell)))
-			vals = append(vals, p.data[r.Zone][int(r.Cell)*p.comps:int(r.Cell+1)*p.comps]...)
+			pts = append(pts, s.centroid(int(r.Zone), int(r.Cell)))
+			ids = append(ids, sampleRef{r.Zone, r.Cell})
 		}
-		return pts, vals
+		return pts, ids
 	})
 }
 
-// growFit fits a quadratic to the samples that gather returns for growing
-// search boxes (grow = 0, 1, ..., maxGrow), stopping at the first stencil
-// with at least minSamples samples that determines the quadratic. Growing
-// also cures stencils that are large enough but degenerate, such as two
-// layers of cells at a boundary (no curvature across them). If no stencil
-// qualifies, the largest one gets the best fit of lower degree.
-func growFit(dim int, x0, h [3]float64, comps int, gather func(grow int) ([][3]float64, []float64)) *polyFit {
+// centroid returns the cached volume centroid of cell c of zone zi.
+func (s *Sampler) centroid(zi, c int) [3]float64 {
+	slot := &s.centroids[zi][c]
+	if x := slot.Load(); x != nil {
+		return *x
+	}
+	x := s.l.f.Zones[zi].CellCentroid(c)
+	slot.Store(&x)
+	return x
+}
+
+// sampleRef names the value a stencil sample reads: cell or point idx of
+// zone Zone.
+type sampleRef struct{ zone, idx int32 }
+
+// stencilOp is the linear map from the values at a stencil's samples to the
+// coefficients of the least-squares polynomial through them:
+// coef_t = Σ_i W[t][i] v_i, with W stored as the coefficients of a polyFit
+// of m components (the fit of the identity data). It depends only on the
+// geometry, so every array of the same centering shares it.
+type stencilOp struct {
+	w   polyFit
+	ids []sampleRef
+}
+
+// apply returns the fit of the array with per-zone data and comps
+// components over the stencil.
+func (op *stencilOp) apply(data [][]float64, comps int) *polyFit {
+	m := len(op.ids)
+	f := polyFit{dim: op.w.dim, terms: op.w.terms, comps: comps, x0: op.w.x0, h: op.w.h, coef: make([]float64, op.w.terms*comps)}
+	if m == 0 {
+		fillNaN(f.coef)
+		return &f
+	}
+	for t := 0; t < f.terms; t++ {
+		row := op.w.coef[t*m : (t+1)*m]
+		out := f.coef[t*comps : (t+1)*comps]
+		for i, id := range op.ids {
+			v := data[id.zone][int(id.idx)*comps : int(id.idx+1)*comps]
+			for c := range out {
+				out[c] += row[i] * v[c]
+			}
+		}
+	}
+	return &f
+}
+
+// growOp builds the operator of a quadratic fit over the samples that
+// gather returns for growing stencils (grow = 0, 1, ..., maxGrow, called in
+// that order), stopping at the first stencil with at least minSamples
+// samples that determines the quadratic well (wellPosed). Growing also
+// cures stencils that are large enough but degenerate, such as two layers
+// of cells at a boundary (no curvature across them). If no stencil
+// qualifies, the largest one gets the best fit of lower degree (2, 1, then
+// 0 at rankTol); with no sample at all the fit is NaN.
+func growOp(dim int, x0, h [3]float64, gather func(grow int) ([][3]float64, []sampleRef)) *stencilOp {
 	need := minSamples(dim)
 	var pts [][3]float64
-	var vals []float64
+	var ids []sampleRef
 	for grow := 0; grow <= maxGrow; grow++ {
-		pts, vals = gather(grow)
+		pts, ids = gather(grow)
 		if len(pts) < need {
 			continue
 		}
-		if f, ok := fitStencil(dim, 2, x0, h, pts, vals, comps, wellPosed); ok {
-			return &f
+		if w, ok := fitStencil(dim, 2, x0, h, pts, nil, 0, wellPosed); ok {
+			return &stencilOp{w: w, ids: ids}
 		}
 	}
-	return bestFit(dim, x0, h, pts, vals, comps)
-}
-
-// bestFit returns the highest-degree fit (2, 1, then 0) the samples
-// determine. With no sample at all the fit is NaN.
-func bestFit(dim int, x0, h [3]float64, pts [][3]float64, vals []float64, comps int) *polyFit {
-	for deg := 2; deg >= 0; deg-- {
-		if f, ok := fitStencil(dim, deg, x0, h, pts, vals, comps, rankTol); ok {
-			return &f
+	for deg := 2; deg >= 0 && len(pts) > 0; deg-- {
+		if w, ok := fitStencil(dim, deg, x0, h, pts, nil, 0, rankTol); ok {
+			return &stencilOp{w: w, ids: ids}
 		}
 	}
-	f := polyFit{dim: dim, terms: 1, comps: comps, x0: x0, h: h, coef: make([]float64, comps)}
-	fillNaN(f.coef)
-	return &f
+	return &stencilOp{w: polyFit{dim: dim, terms: 1, x0: x0, h: h}}
 }
 
 // cellBounds returns the bounding box of the nodes of cell c.

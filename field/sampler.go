@@ -48,6 +48,11 @@ type Sampler struct {
 	arrays []*prepared
 	byName map[string]ArrayID
 	used   [][]bool // per zone: points used by an indexed cell (built on demand)
+	// Stencil operators and cell centroids, per zone and point or cell,
+	// shared by all arrays of a centering; allocated by the first Prepare
+	// of that centering, filled lazily.
+	nodeOps, cellOps [][]atomic.Pointer[stencilOp]
+	centroids        [][]atomic.Pointer[[3]float64]
 }
 
 // prepared is one array ready for sampling.
@@ -105,10 +110,30 @@ func (s *Sampler) Prepare(name string) (ArrayID, error) {
 		p.data = append(p.data, a.Data)
 		p.cache = append(p.cache, make([]atomic.Pointer[polyFit], n))
 	}
+	s.allocShared(p.at)
 	id := ArrayID(len(s.arrays))
 	s.arrays = append(s.arrays, p)
 	s.byName[name] = id
 	return id, nil
+}
+
+// allocShared allocates the shared operator caches of centering at.
+func (s *Sampler) allocShared(at Centering) {
+	zones := s.l.f.Zones
+	if at == AtPoints && s.nodeOps == nil {
+		s.nodeOps = make([][]atomic.Pointer[stencilOp], len(zones))
+		for i, z := range zones {
+			s.nodeOps[i] = make([]atomic.Pointer[stencilOp], z.NumPoints())
+		}
+	}
+	if at == AtCells && s.cellOps == nil {
+		s.cellOps = make([][]atomic.Pointer[stencilOp], len(zones))
+		s.centroids = make([][]atomic.Pointer[[3]float64], len(zones))
+		for i, z := range zones {
+			s.cellOps[i] = make([]atomic.Pointer[stencilOp], z.NumCells())
+			s.centroids[i] = make([]atomic.Pointer[[3]float64], z.NumCells())
+		}
+	}
 }
 
 // checkFinite reports the first non-finite value of a that sampling can
@@ -163,7 +188,9 @@ func (s *Sampler) Centering(id ArrayID) Centering { return s.arrays[id].at }
 // Value stores in dst[:comps] the value of array id at the located point.
 // Point data: Σ_k N_k(r) f_k over the nodes k of the cell, with the shape
 // functions N_k of the cell type at local coordinates r. Cell data: the
-// cell's least-squares quadratic reconstruction at the point.
+// cell's least-squares quadratic reconstruction at the point (for a blank
+// cell, reached through InCell, the fit of its non-blank neighbours
+// extrapolated into it). A cell without shape functions yields NaN.
 //
 // It panics (programmer error) if id is unknown, at names no cell of the
 // field, or dst is shorter than the number of components.
@@ -255,8 +282,7 @@ func (s *Sampler) GradientWith(m GradientMethod, id ArrayID, at Location, dst []
 		grad = make([]float64, 3*p.comps)
 	}
 	for k, n := range nodes {
-		fit := s.nodeFit(p, int(at.Zone), n)
-		fit.gradient(fit.x0, grad)
+		s.nodeFit(p, int(at.Zone), n).centreGradient(grad)
 		for i, v := range grad[:3*p.comps] {
 			dst[i] += N[k] * v
 		}

@@ -204,29 +204,29 @@ const newtonIters = 40
 
 // local returns the local coordinates of p in g. ok is false when the
 // inverse map could not be computed (degenerate cell, or Newton iteration
-// not converged, which happens only for points well outside the cell).
-// Simplices are inverted directly; other types by Newton iteration from the
-// centroid with steps limited to the box [-1,2]^d, which keeps iterates near
-// the cell for distorted shapes.
+// not converged, which happens only for points well outside the cell), and
+// may be false for a point clearly outside the cell (beyond 1e-4 in local
+// coordinates) found so before convergence. Simplices are inverted
+// directly; other types by Newton iteration from the centroid with steps
+// limited to the box [-1,2]^d, which keeps iterates near the cell for
+// distorted shapes.
 func (g *cellGeom) local(p [3]float64) (r [3]float64, ok bool) {
 	switch g.t {
 	case Triangle, Tetra:
 		return g.localSimplex(p)
 	}
-	r = start(g.t)
-	h := g.size()
+	m := g.multilinear()
+	h := m.scale()
 	if !(h > 0) {
 		return r, false
 	}
-	var dN [maxCellNodes][3]float64
+	r = start(g.t)
 	for it := 0; it < newtonIters; it++ {
-		x := g.position(r)
+		x, J := m.eval(r, g.dim)
 		var res [3]float64
 		for i := 0; i < g.dim; i++ {
 			res[i] = p[i] - x[i]
 		}
-		shapeDerivs(g.t, r, &dN)
-		J := g.jacobian(&dN)
 		d, good := solve3(J, res)
 		if !good {
 			if g.t == Pyramid && math.Abs(r[2]-1) < 1e-6 {
@@ -244,18 +244,96 @@ func (g *cellGeom) local(p [3]float64) (r [3]float64, ok bool) {
 		if step < 1e-13 {
 			return r, true
 		}
+		if step < 1e-7 && !contains(g.t, r, 1e-4) {
+			// Converging (quadratically) to a point clearly outside: the
+			// remaining error, about the size of the next step, is far
+			// below the distance to the reference cell.
+			return r, false
+		}
 		if g.t == Pyramid && r[2] > 1-1e-12 && r[2] < 1+1e-12 {
 			// Keep off the singular apex plane while iterating.
 			r[2] = 1 - 1e-12
 		}
 	}
 	// Accept a converged residual even if steps stagnated at rounding level.
-	x := g.position(r)
+	x, _ := m.eval(r, g.dim)
 	var res [3]float64
 	for i := 0; i < g.dim; i++ {
 		res[i] = p[i] - x[i]
 	}
 	return r, norm2(res) <= (1e-12*h)*(1e-12*h)
+}
+
+// multilinearMap is the map of a quad, hexahedron, wedge or pyramid written
+// in monomials of the local coordinates:
+//
+//	x(u,v,w) = a + b u + c v + d w + e uv + f vw + g wu + h uvw
+//
+// (coefficients in that order). Every non-simplex type has this form; it
+// evaluates x and J in about 60 flops.
+type multilinearMap [8][3]float64
+
+// multilinear returns the monomial coefficients of the map of g.
+func (g *cellGeom) multilinear() (m multilinearMap) {
+	X := &g.x
+	for k := 0; k < 3; k++ {
+		var a, b, c, d, e, f, gg, h float64
+		switch g.t {
+		case Quad:
+			a, b, c = X[0][k], X[1][k]-X[0][k], X[3][k]-X[0][k]
+			e = X[2][k] - X[1][k] - X[3][k] + X[0][k]
+		case Hexa:
+			a, b, c, d = X[0][k], X[1][k]-X[0][k], X[3][k]-X[0][k], X[4][k]-X[0][k]
+			e = X[2][k] - X[1][k] - X[3][k] + X[0][k]
+			f = X[7][k] - X[3][k] - X[4][k] + X[0][k]
+			gg = X[5][k] - X[1][k] - X[4][k] + X[0][k]
+			h = X[6][k] - X[2][k] - X[5][k] - X[7][k] + X[1][k] + X[3][k] + X[4][k] - X[0][k]
+		case Pyramid:
+			// (1-w)·bilinear(u,v) + w·apex
+			a, b, c = X[0][k], X[1][k]-X[0][k], X[3][k]-X[0][k]
+			e = X[2][k] - X[1][k] - X[3][k] + X[0][k]
+			d, f, gg, h = X[4][k]-a, -c, -b, -e
+		case Wedge:
+			a, b, c, d = X[0][k], X[1][k]-X[0][k], X[2][k]-X[0][k], X[3][k]-X[0][k]
+			f = X[5][k] - X[3][k] - X[2][k] + X[0][k]
+			gg = X[4][k] - X[3][k] - X[1][k] + X[0][k]
+		}
+		m[0][k], m[1][k], m[2][k], m[3][k] = a, b, c, d
+		m[4][k], m[5][k], m[6][k], m[7][k] = e, f, gg, h
+	}
+	return m
+}
+
+// eval returns x(r) and J = ∂x/∂r, restricted to dim rows and columns (the
+// rest of J is the identity).
+func (m *multilinearMap) eval(r [3]float64, dim int) (x [3]float64, J [3][3]float64) {
+	u, v, w := r[0], r[1], r[2]
+	for k := 0; k < dim; k++ {
+		a, b, c, d, e, f, g, h := m[0][k], m[1][k], m[2][k], m[3][k], m[4][k], m[5][k], m[6][k], m[7][k]
+		x[k] = a + b*u + c*v + d*w + e*u*v + f*v*w + g*w*u + h*u*v*w
+		J[k][0] = b + e*v + g*w + h*v*w
+		J[k][1] = c + e*u + f*w + h*u*w
+		J[k][2] = d + f*v + g*u + h*u*v
+	}
+	if dim == 2 {
+		J[0][2], J[1][2] = 0, 0
+		J[2] = [3]float64{0, 0, 1}
+	}
+	return x, J
+}
+
+// scale returns a length of the cell: the largest component of its edge
+// vectors b, c, d from node 0.
+func (m *multilinearMap) scale() float64 {
+	h := 0.0
+	for i := 1; i <= 3; i++ {
+		for k := 0; k < 3; k++ {
+			if a := math.Abs(m[i][k]); a > h {
+				h = a
+			}
+		}
+	}
+	return h
 }
 
 // localSimplex inverts the affine map of a triangle or tetrahedron.

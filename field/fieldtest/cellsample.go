@@ -2,20 +2,6 @@ package fieldtest
 
 import "farforce/field"
 
-// SampleCellCentroids adds an array of the given components at the cells of
-// z with values f at the volume (area) centroid of each cell,
-// z.CellCentroid: what a cell-centred finite-volume solver stores, to
-// second order, on any cell shape (the node mean used by SampleCells is off
-// by O(h) on pyramids and tapered cells).
-func SampleCellCentroids(z *field.Zone, name string, comps int, f func(x [3]float64, dst []float64)) {
-	n := z.NumCells()
-	a := field.Array{Name: name, Location: field.AtCells, Components: comps, Data: make([]float64, n*comps)}
-	for c := 0; c < n; c++ {
-		f(z.CellCentroid(c), a.Data[c*comps:(c+1)*comps])
-	}
-	z.Arrays = append(z.Arrays, a)
-}
-
 // SampleCellAverages adds an array at the cells of z holding the average of
 // f over each cell, computed on the conforming simplex split of the cell
 // (z.Simplices) with the degree-3 Stroud T3:3-1 rule on each tetrahedron

@@ -174,13 +174,14 @@ func SamplePoints(z *field.Zone, name string, comps int, f func(x [3]float64, ds
 }
 
 // SampleCells adds an array of the given components at the cells of z, with
-// values f at the node centroid of each cell (what a cell-centred solver
-// stores, to second order).
+// values f at the volume (area) centroid of each cell: the point where a
+// cell-centred solver's value sits, to second order, and the point the
+// field sampler reads cell values at.
 func SampleCells(z *field.Zone, name string, comps int, f func(x [3]float64, dst []float64)) {
 	n := z.NumCells()
 	a := field.Array{Name: name, Location: field.AtCells, Components: comps, Data: make([]float64, n*comps)}
 	for c := 0; c < n; c++ {
-		f(z.Centroid(c), a.Data[c*comps:(c+1)*comps])
+		f(z.CellCentroid(c), a.Data[c*comps:(c+1)*comps])
 	}
 	z.Arrays = append(z.Arrays, a)
 }

@@ -1,0 +1,282 @@
+package field
+
+import (
+	"math"
+	"slices"
+)
+
+// Queries of the Locator: point location, cells in a box, local cell size.
+// All are read-only and safe for concurrent use.
+
+// Field returns the field the locator indexes.
+func (l *Locator) Field() *Field { return l.f }
+
+// Dim returns the dimension of the indexed cells: 2 or 3.
+func (l *Locator) Dim() int { return l.dim }
+
+// inBox reports whether p lies in the padded box of indexed cell g.
+func (l *Locator) inBox(g int32, p [3]float64) bool {
+	b := l.box[6*int(g) : 6*int(g)+6 : 6*int(g)+6]
+	return p[0] >= b[0] && p[0] <= b[3] && p[1] >= b[1] && p[1] <= b[4] && p[2] >= b[2] && p[2] <= b[5]
+}
+
+// Locate returns the cell containing p and p's local coordinates in it. A
+// point on a face, edge or vertex shared by several cells (within a relative
+// tolerance of 1e-9 in local coordinates) goes to the one with the lowest
+// (Zone, Cell). ok is false when no indexed cell contains p. In 2D, p[2] is
+// ignored.
+func (l *Locator) Locate(p [3]float64) (Location, bool) {
+	var b int
+	for k := l.dim - 1; k >= 0; k-- {
+		f := (p[k] - l.lo[k]) * l.inv[k]
+		if !(f >= -1e-9*float64(l.n[k])) || f > float64(l.n[k])*(1+1e-9) {
+			return Location{}, false
+		}
+		i := int(f)
+		if i >= l.n[k] {
+			i = l.n[k] - 1
+		} else if i < 0 {
+			i = 0
+		}
+		b = b*l.n[k] + i
+	}
+	var g cellGeom
+	for _, id := range l.items[l.start[b]:l.start[b+1]] {
+		if !l.inBox(id, p) {
+			continue
+		}
+		z := l.f.Zones[l.zoneOf[id]]
+		z.gather(int(l.cellOf[id]), &g)
+		if r, ok := g.local(p); ok && contains(g.t, r, localTol) {
+			return Location{Zone: l.zoneOf[id], Cell: l.cellOf[id], Local: r}, true
+		}
+	}
+	return Location{}, false
+}
+
+// InCell returns the local coordinates of p in the cell ref. ok is false
+// when p lies outside the cell (beyond the relative tolerance 1e-9 in local
+// coordinates), when ref does not exist, or when the cell has no shape
+// functions (vertices, lines, polygons) or is degenerate. The cell may be
+// blank or of another dimension than the index.
+func (l *Locator) InCell(ref CellRef, p [3]float64) (Location, bool) {
+	if ref.Zone < 0 || int(ref.Zone) >= len(l.f.Zones) {
+		return Location{}, false
+	}
+	z := l.f.Zones[ref.Zone]
+	if ref.Cell < 0 || int(ref.Cell) >= len(z.Types) {
+		return Location{}, false
+	}
+	var g cellGeom
+	if !z.gather(int(ref.Cell), &g) || !g.nearBox(p) {
+		return Location{}, false
+	}
+	r, ok := g.local(p)
+	if !ok || !contains(g.t, r, localTol) {
+		return Location{}, false
+	}
+	return Location{Zone: ref.Zone, Cell: ref.Cell, Local: r}, true
+}
+
+// CellsInBox appends to dst the indexed cells whose padded bounding box
+// overlaps the box [lo,hi], sorted by (Zone, Cell) without duplicates, and
+// returns the extended slice. In 2D the z range is ignored. The test is by
+// bounding box only: a returned cell may miss the box itself.
+func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
+	for k := 0; k < l.dim; k++ {
+		if !(lo[k] <= hi[k]) {
+			return dst
+		}
+	}
+	first := len(dst)
+	i0, i1 := l.binRange(lo[:], hi[:])
+	q := [6]float64{lo[0], lo[1], lo[2], hi[0], hi[1], hi[2]}
+	if l.dim == 2 {
+		q[2], q[5] = math.Inf(-1), math.Inf(1)
+	}
+	for c := i0[2]; c <= i1[2]; c++ {
+		for bb := i0[1]; bb <= i1[1]; bb++ {
+			for a := i0[0]; a <= i1[0]; a++ {
+				bin := [3]int{a, bb, c}
+				idx := (c*l.n[1]+bb)*l.n[0] + a
+				for _, id := range l.items[l.start[idx]:l.start[idx+1]] {
+					b := l.box[6*int(id) : 6*int(id)+6 : 6*int(id)+6]
+					if b[0] > q[3] || b[3] < q[0] || b[1] > q[4] || b[4] < q[1] || b[2] > q[5] || b[5] < q[2] {
+						continue
+					}
+					// Report each cell once: from the bin holding the low
+					// corner of the intersection of the two boxes.
+					dup := false
+					for k := 0; k < l.dim; k++ {
+						if l.binIndex(k, math.Max(b[k], q[k])) != bin[k] {
+							dup = true
+							break
+						}
+					}
+					if !dup {
+						dst = append(dst, CellRef{l.zoneOf[id], l.cellOf[id]})
+					}
+				}
+			}
+		}
+	}
+	slices.SortFunc(dst[first:], compareRefs)
+	return dst
+}
+
+func compareRefs(a, b CellRef) int {
+	if a.Zone != b.Zone {
+		return int(a.Zone) - int(b.Zone)
+	}
+	return int(a.Cell) - int(b.Cell)
+}
+
+// CellSize returns the mean edge length of the cell containing p or, when p
+// lies in no indexed cell, of the cell whose bounding box is nearest to p
+// (ties to the lowest (Zone, Cell)). It is a length scale for tessellating
+// surfaces to the local mesh resolution.
+func (l *Locator) CellSize(p [3]float64) float64 {
+	if loc, ok := l.Locate(p); ok {
+		return l.f.Zones[loc.Zone].meanEdge(int(loc.Cell))
+	}
+	g := l.nearest(p)
+	return l.f.Zones[l.zoneOf[g]].meanEdge(int(l.cellOf[g]))
+}
+
+// nearest returns the indexed cell whose padded box is nearest to p (ties
+// to the lowest (Zone, Cell)), visiting the shells of bins at growing
+// Chebyshev distance ("rings") from p's clamped bin until no unvisited bin
+// can hold a nearer box. Cost: the bins within the distance of the nearest
+// box, at most every bin once.
+func (l *Locator) nearest(p [3]float64) int32 {
+	var c [3]int
+	for k := 0; k < l.dim; k++ {
+		c[k] = l.binIndex(k, p[k])
+	}
+	best, bestD := int32(-1), math.Inf(1)
+	visit := func(b int) {
+		for _, id := range l.items[l.start[b]:l.start[b+1]] {
+			d := l.boxDist2(id, p)
+			if d < bestD || (d == bestD && l.before(id, best)) {
+				best, bestD = id, d
+			}
+		}
+	}
+	for ring := 0; ; ring++ {
+		// Bins at ring r lie at least (r-1) bin widths from p along an axis
+		// where the ring still has bins.
+		lb, any := math.Inf(1), ring == 0
+		for k := 0; k < l.dim; k++ {
+			if (c[k]-ring >= 0 || c[k]+ring < l.n[k]) && l.inv[k] > 0 {
+				any = true
+				lb = math.Min(lb, float64(max(ring-1, 0))/l.inv[k])
+			}
+		}
+		if !any || (best >= 0 && lb*lb > bestD) {
+			return best
+		}
+		l.eachShellBin(c, ring, visit)
+	}
+}
+
+// before reports whether indexed cell a precedes b in (Zone, Cell) order;
+// b < 0 means none.
+func (l *Locator) before(a, b int32) bool {
+	if b < 0 {
+		return true
+	}
+	if l.zoneOf[a] != l.zoneOf[b] {
+		return l.zoneOf[a] < l.zoneOf[b]
+	}
+	return l.cellOf[a] < l.cellOf[b]
+}
+
+// eachShellBin calls fn for every bin of the grid at Chebyshev distance
+// exactly ring from bin c, in increasing bin order.
+func (l *Locator) eachShellBin(c [3]int, ring int, fn func(b int)) {
+	var i0, i1 [3]int
+	for k := 0; k < 3; k++ {
+		i0[k], i1[k] = max(c[k]-ring, 0), min(c[k]+ring, l.n[k]-1)
+	}
+	for z := i0[2]; z <= i1[2]; z++ {
+		for y := i0[1]; y <= i1[1]; y++ {
+			row := (z*l.n[1] + y) * l.n[0]
+			if abs(z-c[2]) == ring || abs(y-c[1]) == ring {
+				for x := i0[0]; x <= i1[0]; x++ {
+					fn(row + x)
+				}
+				continue
+			}
+			if x := c[0] - ring; x >= 0 {
+				fn(row + x)
+			}
+			if x := c[0] + ring; ring > 0 && x < l.n[0] {
+				fn(row + x)
+			}
+		}
+	}
+}
+
+func abs(i int) int {
+	if i < 0 {
+		return -i
+	}
+	return i
+}
+
+// boxDist2 returns the squared distance from p to the box of indexed cell g.
+func (l *Locator) boxDist2(g int32, p [3]float64) float64 {
+	b := l.box[6*int(g) : 6*int(g)+6]
+	d := 0.0
+	for k := 0; k < l.dim; k++ {
+		if p[k] < b[k] {
+			d += (b[k] - p[k]) * (b[k] - p[k])
+		} else if p[k] > b[3+k] {
+			d += (p[k] - b[3+k]) * (p[k] - b[3+k])
+		}
+	}
+	return d
+}
+
+// nearBox reports whether p lies in the bounding box of g padded as in the
+// index (boxPad times its largest extent), the same pre-test Locate applies.
+func (g *cellGeom) nearBox(p [3]float64) bool {
+	var lo, hi [3]float64
+	h := 0.0
+	for k := 0; k < g.dim; k++ {
+		lo[k], hi[k] = g.x[0][k], g.x[0][k]
+		for i := 1; i < g.n; i++ {
+			lo[k], hi[k] = math.Min(lo[k], g.x[i][k]), math.Max(hi[k], g.x[i][k])
+		}
+		h = math.Max(h, hi[k]-lo[k])
+	}
+	pad := boxPad*h + 1e-300
+	for k := 0; k < g.dim; k++ {
+		if !(p[k] >= lo[k]-pad && p[k] <= hi[k]+pad) {
+			return false
+		}
+	}
+	return true
+}
+
+// meanEdge returns the mean length of the edges of cell c (each edge of a
+// volume cell appears in two faces, so the mean over face sides is the mean
+// over edges).
+func (z *Zone) meanEdge(c int) float64 {
+	nodes := z.CellNodes(c)
+	sum, n := 0.0, 0
+	for _, f := range z.Types[c].Faces() {
+		for i := range f {
+			a, b := z.Point(nodes[f[i]]), z.Point(nodes[f[(i+1)%len(f)]])
+			sum += math.Sqrt(norm2([3]float64{b[0] - a[0], b[1] - a[1], b[2] - a[2]}))
+			n++
+			if len(f) == 2 {
+				break // a 2D cell's "faces" are its edges
+			}
+		}
+	}
+	if n == 0 {
+		return 0
+	}
+	return sum / float64(n)
+}
