@@ -2,11 +2,14 @@ package readers
 
 import (
 	"bytes"
+	"io"
 	"math"
 	"os"
 	"path/filepath"
 	"strconv"
 	"testing"
+
+	"farforce/field"
 )
 
 // benchFFCG returns an ffcg file of one structured n x n x n-cell zone
@@ -83,3 +86,67 @@ func BenchmarkReadFFCG(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkReadFFCGUnstructured reads ~1M-cell unstructured zones
+// (benchZone: hexahedra or tetrahedra, a point vector, a point scalar, a
+// cell scalar) written by WriteFFCG, and reads the same zone as legacy VTK
+// ASCII for comparison. MB/s is file bytes per second.
+func BenchmarkReadFFCGUnstructured(b *testing.B) {
+	for _, kind := range []string{"hex", "tet"} {
+		z := benchZone(kind, 1000000)
+		f := &field.Field{Zones: []*field.Zone{z}}
+		dir := b.TempDir()
+		var fb, vb bytes.Buffer
+		if err := WriteFFCG(&fb, f, nil); err != nil {
+			b.Fatal(err)
+		}
+		if err := WriteVTK(&vb, z, WriteOptions{}); err != nil {
+			b.Fatal(err)
+		}
+		for _, c := range []struct {
+			name string
+			data []byte
+		}{{"ffcg", fb.Bytes()}, {"vtk-ascii", vb.Bytes()}} {
+			path := filepath.Join(dir, kind+"."+c.name)
+			if err := os.WriteFile(path, c.data, 0o644); err != nil {
+				b.Fatal(err)
+			}
+			b.Run(kind+"/"+c.name, func(b *testing.B) {
+				b.SetBytes(int64(len(c.data)))
+				b.ReportAllocs()
+				for range b.N {
+					g, err := ReadFile(path, Options{})
+					if err != nil {
+						b.Fatal(err)
+					}
+					if g.NumCells() != z.NumCells() {
+						b.Fatal("cells")
+					}
+				}
+			})
+		}
+	}
+}
+
+// BenchmarkWriteFFCG writes a ~1M-hexahedra zone; MB/s is output bytes per
+// second.
+func BenchmarkWriteFFCG(b *testing.B) {
+	f := &field.Field{Zones: []*field.Zone{benchZone("hex", 1000000)}}
+	var n countWriter
+	if err := WriteFFCG(&n, f, nil); err != nil {
+		b.Fatal(err)
+	}
+	b.SetBytes(int64(n))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for range b.N {
+		if err := WriteFFCG(io.Discard, f, nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// countWriter counts the bytes written to it.
+type countWriter int
+
+func (c *countWriter) Write(p []byte) (int, error) { *c += countWriter(len(p)); return len(p), nil }

@@ -37,6 +37,11 @@ func (p *ffcgParser) finishZone(z *ffcgZone, end keyLine) error {
 			return err
 		}
 		out.Offsets = []int32{0}
+		if len(cellSecs) == 1 {
+			s := cellSecs[0]
+			out.Types, out.Offsets, out.Conn = s.types, s.offsets, s.conn
+			cellSecs = nil
+		}
 		for _, s := range cellSecs {
 			base := int32(len(out.Conn))
 			out.Types = append(out.Types, s.types...)
@@ -53,6 +58,14 @@ func (p *ffcgParser) finishZone(z *ffcgZone, end keyLine) error {
 	if err := p.deriveVelocity(z, out); err != nil {
 		return err
 	}
+	gamma, ok := p.base.ref["SpecificHeatRatio"]
+	if !ok || !(gamma > 1) {
+		gamma = 1.4
+		if z.sawEnergy && !z.sawPressure {
+			p.s.warn("zone %s: EnergyStagnationDensity without Pressure: SpecificHeatRatio 1.4 assumed (none in the ReferenceState)", z.name)
+		}
+	}
+	p.derivePressure(out, gamma)
 	// Point arrays first, then cell arrays, each in file order followed by
 	// the derived velocities: the order WriteFFCG writes them in.
 	slices.SortStableFunc(out.Arrays, func(a, b field.Array) int { return int(a.Location) - int(b.Location) })
@@ -162,4 +175,37 @@ func findArray(z *field.Zone, name string, loc field.Centering) *field.Array {
 		}
 	}
 	return nil
+}
+
+// derivePressure adds Pressure = (γ − 1)(ρE − ½ρ|V|²) where a solution has
+// EnergyStagnationDensity (ρE), Density and velocity (given or derived)
+// but no Pressure: the perfect-gas relation (SIDS FlowEquationSet,
+// GasModel Ideal); gamma is γ: the base's ReferenceState
+// SpecificHeatRatio, else 1.4 (air, common practice; finishZone warns).
+func (p *ffcgParser) derivePressure(out *field.Zone, gamma float64) {
+	for _, loc := range []field.Centering{field.AtPoints, field.AtCells} {
+		e := findArray(out, "EnergyStagnationDensity", loc)
+		rho := findArray(out, "Density", loc)
+		if e == nil || rho == nil || e.Components != 1 || rho.Components != 1 || out.Array("Pressure") != nil {
+			continue
+		}
+		var vel []*field.Array
+		for _, a := range []string{"VelocityX", "VelocityY", "VelocityZ"} {
+			if v := findArray(out, a, loc); v != nil && v.Components == 1 {
+				vel = append(vel, v)
+			}
+		}
+		if len(vel) == 0 {
+			continue
+		}
+		d := make([]float64, len(e.Data))
+		for i := range d {
+			q := 0.0
+			for _, v := range vel {
+				q += v.Data[i] * v.Data[i]
+			}
+			d[i] = (gamma - 1) * (e.Data[i] - 0.5*rho.Data[i]*q)
+		}
+		out.Arrays = append(out.Arrays, field.Array{Name: "Pressure", Location: loc, Components: 1, Data: d})
+	}
 }

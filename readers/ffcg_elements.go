@@ -175,6 +175,9 @@ func (p *ffcgParser) convertSection(z *ffcgZone, sec *ffcgSection, et cgElem, n 
 			}
 		}
 	}
+	if et.npe > 0 && et.corners == et.npe {
+		return p.fixedSection(z, sec, et, n, conn)
+	}
 	sec.types = make([]field.CellType, 0, n)
 	sec.offsets = make([]int32, 1, n+1)
 	sec.conn = make([]int32, 0, len(conn))
@@ -231,6 +234,26 @@ func (p *ffcgParser) convertSection(z *ffcgZone, sec *ffcgSection, et cgElem, n 
 	}
 	if et.name == "MIXED" && pos != len(conn) {
 		return p.errK(k, fmt.Sprintf("%d connectivity values for %d elements", pos, n), fmt.Sprint(len(conn)), errSyntax)
+	}
+	return nil
+}
+
+// fixedSection converts a section of one linear element type in place:
+// conn becomes the 0-based connectivity, offsets run in steps of the
+// element's node count.
+func (p *ffcgParser) fixedSection(z *ffcgZone, sec *ffcgSection, et cgElem, n int, conn []int32) error {
+	for i, v := range conn {
+		if v < 1 || int(v) > z.nv {
+			return p.errK(sec.k, fmt.Sprintf("element %d: node numbers in 1..%d", sec.first+int64(i/et.npe), z.nv), fmt.Sprint(v), errSyntax)
+		}
+		conn[i] = v - 1
+	}
+	sec.conn = conn
+	sec.types = make([]field.CellType, n)
+	sec.offsets = make([]int32, n+1)
+	for e := range n {
+		sec.types[e] = et.t
+		sec.offsets[e+1] = int32((e + 1) * et.npe)
 	}
 	return nil
 }

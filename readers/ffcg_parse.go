@@ -29,6 +29,7 @@ type ffcgParser struct {
 type ffcgBase struct {
 	name             string
 	cellDim, physDim int
+	ref              map[string]float64 // base-level ReferenceState
 }
 
 // stmtLine returns the next statement line with its comment removed;
@@ -266,6 +267,7 @@ func (p *ffcgParser) parseBase(k keyLine) error {
 		case keyword(k, "ReferenceState"):
 			var ref map[string]float64
 			ref, err = p.referenceState(k)
+			p.base.ref = ref
 			if first {
 				p.info.Reference = ref
 			}

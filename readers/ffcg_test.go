@@ -368,3 +368,33 @@ func TestFFCGWorkersIdentical(t *testing.T) {
 		t.Errorf("%d cells", ref.NumCells())
 	}
 }
+
+// Conservative variables without pressure: p = (γ−1)(ρE − ½ρ|V|²) (perfect
+// gas), with γ from the ReferenceState, else 1.4 and a warning. Chosen
+// values: ρ = 1.2, ρu = 12 (u = 10), p = 1000, γ = 1.4 give
+// ρE = p/(γ−1) + ½ρu² = 2500 + 60 = 2560.
+func TestFFCGPressureFromEnergy(t *testing.T) {
+	file := func(ref string) string {
+		return "ffcg 1\nbase B CellDimension=2 PhysicalDimension=2\n" + ref +
+			"zone U Unstructured VertexSize=3 CellSize=1\nGridCoordinates\ndata CoordinateX R8 3\n0 1 0\ndata CoordinateY R8 3\n0 0 1\nend\n" +
+			"Elements T TRI_3 ElementRange=1,1\ndata ElementConnectivity I4 3\n1 2 3\nend\n" +
+			"FlowSolution S GridLocation=CellCenter\ndata Density R8 1\n1.2\ndata MomentumX R8 1\n12\ndata MomentumY R8 1\n0\n" +
+			"data EnergyStagnationDensity R8 1\n2560\nend\nend zone\nend base\n"
+	}
+	for _, c := range []struct {
+		ref  string
+		warn int
+	}{{"ReferenceState\nSpecificHeatRatio = 1.4\nend\n", 0}, {"", 1}} {
+		f, _ := readFFCGString(t, file(c.ref), Options{Arrays: []string{"Pressure"}})
+		z := f.Zones[0]
+		if got := names(z); !slices.Equal(got, []string{"Pressure"}) {
+			t.Fatalf("arrays %v", got)
+		}
+		if p := z.Arrays[0].Data[0]; !closeTo(p, 1000, 1e-12) || z.Arrays[0].Location != field.AtCells {
+			t.Errorf("pressure %v", p)
+		}
+		if len(f.Warnings) != c.warn {
+			t.Errorf("warnings %q", f.Warnings)
+		}
+	}
+}

@@ -111,17 +111,22 @@ func (fw *ffcgWriter) flush() {
 	fw.buf = fw.buf[:0]
 }
 
-// ints writes integer rows (one element per row).
-func (fw *ffcgWriter) intRows(depth int, rows [][]int64) {
+// cellRows writes the 1-based nodes of cells lo..end-1 of z, one cell per
+// line, each preceded by its CGNS type number when mixed.
+func (fw *ffcgWriter) cellRows(depth int, z *field.Zone, lo, end int, mixed bool) {
 	ind := strings.Repeat("  ", depth)
 	fw.buf = fw.buf[:0]
-	for _, r := range rows {
+	for c := lo; c < end; c++ {
 		fw.buf = append(fw.buf, ind...)
-		for i, x := range r {
+		if mixed {
+			fw.buf = strconv.AppendInt(fw.buf, int64(cgTypeOf(z.Types[c]).id), 10)
+			fw.buf = append(fw.buf, ' ')
+		}
+		for i, v := range z.CellNodes(c) {
 			if i > 0 {
 				fw.buf = append(fw.buf, ' ')
 			}
-			fw.buf = strconv.AppendInt(fw.buf, x, 10)
+			fw.buf = strconv.AppendInt(fw.buf, int64(v)+1, 10)
 		}
 		fw.buf = append(fw.buf, '\n')
 		if len(fw.buf) > 1<<15 {
@@ -221,7 +226,6 @@ func (fw *ffcgWriter) sections(src *field.Zone, name string, lo, hi int, first i
 		}
 		k++
 		last := first + int64(end-lo) - 1
-		var rows [][]int64
 		var offs []float64
 		typ := "MIXED"
 		switch {
@@ -231,25 +235,16 @@ func (fw *ffcgWriter) sections(src *field.Zone, name string, lo, hi int, first i
 		case !mixed:
 			typ = cgTypeOf(src.Types[lo]).name
 		}
-		total := 0
-		for c := lo; c < end; c++ {
-			nodes := src.CellNodes(c)
-			r := make([]int64, 0, len(nodes)+1)
-			if typ == "MIXED" {
-				r = append(r, int64(cgTypeOf(src.Types[c]).id))
-			}
-			for _, v := range nodes {
-				r = append(r, int64(v)+1)
-			}
-			total += len(r)
-			rows = append(rows, r)
-			if poly {
-				offs = append(offs, float64(total))
-			}
+		total := int(src.Offsets[end] - src.Offsets[lo])
+		if typ == "MIXED" {
+			total += end - lo
 		}
 		fw.line(2, fmt.Sprintf("Elements %s %s ElementRange=%d,%d", ffcgName(secName), typ, first, last))
 		fw.line(3, fmt.Sprintf("data ElementConnectivity I4 %d", total))
-		fw.intRows(4, rows)
+		fw.cellRows(4, src, lo, end, typ == "MIXED")
+		for c := lo; poly && c < end; c++ {
+			offs = append(offs, float64(src.Offsets[c+1]-src.Offsets[lo]))
+		}
 		if poly {
 			fw.line(3, fmt.Sprintf("data ElementStartOffset I4 %d", len(offs)))
 			fw.values(4, offs, 8)

@@ -3,6 +3,7 @@ package readers
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"farforce/field"
@@ -23,6 +24,9 @@ type ffcgZone struct {
 	arrayLines []int // line of each array's data statement
 	blank      []bool
 	bcs        []*ffcgBC
+	// sawEnergy and sawPressure record data statements whether or not
+	// Options.Arrays keeps them, so that warnings do not depend on it.
+	sawEnergy, sawPressure bool
 }
 
 // parseZone reads a zone block opened by k and appends its field.Zone.
@@ -240,6 +244,8 @@ func (p *ffcgParser) solution(z *ffcgZone, k keyLine) error {
 		if err := p.wantCount(h, total*int64(h.comps), fmt.Sprintf("%d %s entries with rind x %d components", total, loc, h.comps)); err != nil {
 			return err
 		}
+		z.sawEnergy = z.sawEnergy || h.name == "EnergyStagnationDensity"
+		z.sawPressure = z.sawPressure || h.name == "Pressure"
 		isBlank := h.name == "Iblank" && loc == field.AtCells
 		if !isBlank && !p.keepArray(h.name) {
 			if err := p.skipData(h); err != nil {
@@ -317,17 +323,25 @@ func stripRind(d []float64, comps int, full, core []int, rind []int64) []float64
 	return out
 }
 
+// derivedFrom lists, for each quantity a reader may derive (docs §2.7),
+// the arrays it is derived from.
+var derivedFrom = map[string][]string{
+	"VelocityX": {"MomentumX", "Density"},
+	"VelocityY": {"MomentumY", "Density"},
+	"VelocityZ": {"MomentumZ", "Density"},
+	"Pressure": {"EnergyStagnationDensity", "Density", "MomentumX", "MomentumY", "MomentumZ",
+		"VelocityX", "VelocityY", "VelocityZ"},
+}
+
 // keepArray reports whether a flow array is read: it is wanted, or it is
-// needed to derive a wanted velocity component.
+// needed to derive a wanted quantity.
 func (p *ffcgParser) keepArray(name string) bool {
 	if p.opt.wants(name) {
 		return true
 	}
-	if strings.HasPrefix(name, "Momentum") || name == "Density" {
-		for _, v := range []string{"VelocityX", "VelocityY", "VelocityZ"} {
-			if p.opt.wants(v) {
-				return true
-			}
+	for q, from := range derivedFrom {
+		if p.opt.wants(q) && slices.Contains(from, name) {
+			return true
 		}
 	}
 	return false

@@ -118,6 +118,14 @@ def bomb_whitespace():
     return gz((HEAD42).encode() + b"\n" * (16 << 20) + PTS4.encode() + TET42.encode())
 
 
+def spoints_blank_bomb():
+    """A 267-byte gzip stream: 130 KB of blank lines, then a STRUCTURED_POINTS
+    grid of 10^6 implicit points with no data at all. Nothing in the file
+    backs a million points; reading it must not allocate tens of MB."""
+    return gz(b"# vtk DataFile Version 4.2\nx\nASCII\nDATASET STRUCTURED_POINTS\n" + b"\n" * 130000
+              + b"DIMENSIONS 100 100 100\nSPACING 1 1 1\nORIGIN 0 0 0\n")
+
+
 def bomb():
     """A valid-looking gzip stream that inflates to about 30 MB of ASCII zeros."""
     n = 5_000_000
@@ -143,6 +151,8 @@ def main():
         f.write(bomb())
     with open(os.path.join(out, "bomb_whitespace.vtk.gz"), "wb") as f:
         f.write(bomb_whitespace())
+    with open(os.path.join(out, "spoints_blank_bomb.vtk.gz"), "wb") as f:
+        f.write(spoints_blank_bomb())
     gz = open("testdata/vtk/ugrid_mixed_v51_binary.vtk.gz", "rb").read()
     with open(os.path.join(out, "truncated.vtk.gz"), "wb") as f:
         f.write(gz[: len(gz) // 2])
