@@ -89,6 +89,7 @@ const (
 	WakeInducedKE   = "induced_energy"
 	WakeInducedTail = "induced_energy_tail"
 	WakeMaskell     = "induced_maskell"
+	WakeSplitTotal  = "profile_plus_induced"
 )
 
 // Wake integrates the wake-plane drag formulas over the cut c of a plane

@@ -316,14 +316,19 @@ func edgeValues(pg poissonGrid, xi, sig []float64, corner func(i, j int) (float6
 }
 
 // AddCrossflow appends the crossflow figures to the drags of r (induced
-// drag by the energy form, with its dipole tail, and by Maskell's form)
-// and refreshes the coefficients.
+// drag by the energy form, with its dipole tail, and by Maskell's form;
+// the decomposition total Betz profile + Maskell induced, to set beside
+// the exact momentum drag, from which it differs by the blockage term and
+// the crossflow energy outside the plane's vorticity) and refreshes the
+// coefficients.
 func (r *WakeResult) AddCrossflow(cf CrossflowResult, opt *Options) {
 	r.Crossflow = &cf
+	betz, _ := r.Drag(WakeBetz)
 	r.Drags = append(r.Drags,
 		WakeDrag{Key: WakeInducedKE, Name: "induced drag, crossflow energy (plane grid)", Formula: "½ρ∞∬(v²+w²)dS", Value: cf.Energy},
 		WakeDrag{Key: WakeInducedTail, Name: "induced drag, energy + dipole tail", Formula: "½ρ∞∬(v²+w²)dS + ½ρ∞|μ|²∬out r⁻⁴dS", Value: cf.EnergyTail},
 		WakeDrag{Key: WakeMaskell, Name: "induced drag, Maskell", Formula: "½ρ∞∬ψξ dS − ½ρ∞∬φσ dS", Value: cf.Maskell},
+		WakeDrag{Key: WakeSplitTotal, Name: "profile + induced (Betz + Maskell)", Formula: "Dp(Betz) + Di(Maskell)", Value: betz + cf.Maskell},
 	)
 	r.Flags = append(r.Flags, cf.Flags...)
 	r.applyCoefficients(opt, r.Dim)

@@ -176,3 +176,41 @@ func TestRectExterior(t *testing.T) {
 		t.Errorf("square of half-side 3: %g not between π/18 and π/9", v)
 	}
 }
+
+// TestVortexPairSecondOrder: on a smooth wake (two Gaussian vortices
+// ±Γ, d = 4, σ = 0.5; fieldtest.VortexPair) the crossflow analyses reach
+// the second order of the midpoint rule and the 5-point Laplacian (±0.2):
+// Maskell's form → (ρΓ²/2π)[ln(d/2σ) + γ_E/2 + ½E₁(d²/4σ²)] (derived in
+// fieldtest.VortexPair.InducedDrag) and the lift → ρU∞Γd (Kutta–Joukowski
+// per strip; VALIDATION §2.5). The plane |y|, |z| < 6 holds the vorticity
+// to e^(−32).
+func TestVortexPairSecondOrder(t *testing.T) {
+	pair := fieldtest.VortexPair{Rho: 1.2, U: 30, Gamma: 5, Sep: 4, Sigma: 0.5, PInf: 1e5}
+	z := fieldtest.BoxHex([3]float64{-0.5, -6, -6}, [3]float64{0.5, 6, 6}, [3]int{1, 3, 3})
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, _ := surface.ParsePlane("x=0")
+	opt := WakeOptions{Options: Options{Free: Freestream{V: Vec3{30, 0, 0}, Rho: 1.2, P: 1e5}}}
+	di, lift := pair.InducedDrag(), pair.Rho*pair.U*pair.Gamma*pair.Sep
+	var hs, eMas, eLift []float64
+	for _, n := range []int{48, 96, 192} {
+		g, err := surface.PlaneGridOf(l, p, n, n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cf, err := Crossflow(g, pair, opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		t.Logf("h=%g: Maskell %.10g (exact %.10g), lift %.10g (exact %g)", g.H1, cf.Maskell, di, cf.Lift, lift)
+		hs, eMas, eLift = append(hs, g.H1), append(eMas, math.Abs(cf.Maskell-di)), append(eLift, math.Abs(cf.Lift-lift))
+	}
+	if ord := fitOrder(hs, eMas); !(math.Abs(ord-2) <= 0.2) {
+		t.Errorf("Maskell: order %.3f (errors %v), want 2", ord, eMas)
+	}
+	if ord := fitOrder(hs, eLift); !(math.Abs(ord-2) <= 0.2) {
+		t.Errorf("lift: order %.3f (errors %v), want 2", ord, eLift)
+	}
+}

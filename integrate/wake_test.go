@@ -377,3 +377,39 @@ func TestEntropyAwayFlag(t *testing.T) {
 		}
 	}
 }
+
+// TestBetzIdentity checks the algebraic split of VALIDATION §2.4 point by
+// point on an incompressible field (ρ = ρ∞): Betz profile drag + crossflow
+// energy + blockage term = ∬[ρu(U∞−u) + (p∞−p)]dS, the exact wake-plane
+// drag without τxx (here the momentum and pressure terms of Forces), to
+// rounding.
+func TestBetzIdentity(t *testing.T) {
+	flow := boxWake{U: 20, A: 3, P: 40, L: 4, Sigma: 0.5, Rho: 1.2, Mu: 0.01}
+	z := fieldtest.BoxTet([3]float64{-1, -3, -3}, [3]float64{5, 3, 3}, [3]int{6, 6, 6})
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, _ := surface.ParsePlane("x=3.3 ymin=-2 ymax=2 zmin=-2 zmax=2")
+	c, _, err := surface.CutPlane(l, p, surface.CutOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		flow field.FlowEvaluator
+		opt  WakeOptions
+	}{
+		{flow, WakeOptions{Options: Options{Free: Freestream{V: Vec3{20, 0, 0}, Rho: 1.2, P: 1e5}}}},
+		{ellipse, ellipseOpt()}, // crossflow, uniform total pressure
+	} {
+		r, err := Wake(c, tc.flow, tc.opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		split := mustDrag(t, &r, WakeBetz) + mustDrag(t, &r, WakeCrossKE) + mustDrag(t, &r, WakeBlockage)
+		want := r.Momentum.Terms.Momentum[0] + r.Momentum.Terms.Pressure[0]
+		if math.Abs(split-want) > 1e-10*math.Abs(want) || r.BetzClamped != 0 || want == 0 {
+			t.Errorf("Betz split %.15g, momentum + pressure %.15g (clamped %g)", split, want, r.BetzClamped)
+		}
+	}
+}
