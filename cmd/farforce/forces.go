@@ -103,18 +103,10 @@ func (c *forcesImpl) run(e *env, args []string) error {
 		shapes[i] = s
 	}
 	prog := newProgress(e)
-	prog.step("reading %d file(s)", len(args))
-	f, err := loadField(args, readers.Options{Workers: c.flow.workers})
+	p, err := loadPrepared(prog, c.fs, &c.flow, args)
 	if err != nil {
 		return err
 	}
-	prog.done()
-	prog.step("indexing %d cells and preparing the arrays", f.NumCells())
-	p, err := c.flow.prepare(c.fs, args, f)
-	if err != nil {
-		return err
-	}
-	prog.done()
 	rep := &forcesReport{Schema: forcesSchema, Setup: p.setup, Notice: notice}
 	for i, s := range shapes {
 		prog.step("surface %d: cutting and integrating", i+1)

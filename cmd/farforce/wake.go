@@ -10,7 +10,6 @@ import (
 
 	"farforce/cmd/internal/svgplot"
 	"farforce/integrate"
-	"farforce/readers"
 	"farforce/surface"
 )
 
@@ -118,18 +117,10 @@ func (c *wakeImpl) run(e *env, args []string) error {
 		}
 	}
 	prog := newProgress(e)
-	prog.step("reading %d file(s)", len(args))
-	f, err := loadField(args, readers.Options{Workers: c.flow.workers})
+	p, err := loadPrepared(prog, c.fs, &c.flow, args)
 	if err != nil {
 		return err
 	}
-	prog.done()
-	prog.step("indexing %d cells and preparing the arrays", f.NumCells())
-	p, err := c.flow.prepare(c.fs, args, f)
-	if err != nil {
-		return err
-	}
-	prog.done()
 	wopt := integrate.WakeOptions{Options: p.opt, Gamma: c.gamma, Span: c.span}
 	rep := &wakeReport{Schema: wakeSchema, Setup: p.setup, Gamma: c.gamma, Span: c.span, Notice: notice}
 	for i, pl := range planes {
