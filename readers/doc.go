@@ -1,8 +1,26 @@
 // Package readers loads flow solutions into field.Field values and writes
-// zones back out. The supported format is legacy VTK ("# vtk DataFile
-// Version x.y"), versions 1.0 to 5.x, ASCII and BINARY.
+// zones back out. The supported formats are legacy VTK ("# vtk DataFile
+// Version x.y"), versions 1.0 to 5.x, ASCII and BINARY, and ffcg, a plain-
+// text format of our own that follows the CGNS data model (first line
+// "ffcg 1"; specified in docs/cgns-text-format.md). ReadFile and ReadFiles
+// recognise either from the bytes, whatever the file name.
 //
-// # Supported content
+// # ffcg
+//
+// ReadFFCG reads an ffcg stream and ReadCase a file of either format with
+// its CaseInfo: the ReferenceState of the first base (Density, VelocityX/Y/Z,
+// Pressure, Mach, Reynolds, LengthReference, ...) and the BC patches (name,
+// BCType, zone, vertices and faces; Patch.IsWall tells the BCWall types).
+// Structured zones become hexahedra, quadrilaterals or segments in VTK node
+// order; conservative variables (MomentumX/Y/Z with Density) give
+// VelocityX/Y/Z, and EnergyStagnationDensity gives Pressure; CellCenter
+// data with rind is trimmed to the core. WriteFFCG writes a field and its
+// CaseInfo back. The reading rules, limits and positioned errors are those
+// of the VTK reader below (docs/cgns-text-format.md §3). The cmd/farforce
+// commands use the CaseInfo: the ReferenceState fills the freestream and
+// references that no flag sets, and the wall patches are the near field.
+//
+// # Legacy VTK: supported content
 //
 // Datasets: STRUCTURED_POINTS (SPACING or ASPECT_RATIO, ORIGIN),
 // STRUCTURED_GRID, RECTILINEAR_GRID, UNSTRUCTURED_GRID (classic "CELLS n

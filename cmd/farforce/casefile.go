@@ -13,6 +13,7 @@ import (
 
 	"github.com/BurntSushi/toml"
 
+	"farforce/readers"
 	"farforce/surface"
 )
 
@@ -315,6 +316,19 @@ func bad(key []string, format string, a ...any) *fieldError {
 // is reported at that table's header line.
 func badAt(table string, i int, format string, a ...any) *fieldError {
 	return &fieldError{key: []string{table}, nth: i, msg: fmt.Sprintf(format, a...)}
+}
+
+// ffcgFiles reports whether every solution file of the case is named as
+// an ffcg file (extension .ffcg, possibly followed by a compression
+// extension), whose BCWall patches can give the near field without a
+// [near] table; runCase checks that they do.
+func (c *caseFile) ffcgFiles() bool {
+	for _, f := range c.Files {
+		if !strings.Contains(strings.ToLower(filepath.Base(f)), readers.FFCGExt) {
+			return false
+		}
+	}
+	return len(c.Files) > 0
 }
 
 // resolve returns p relative to the case file's folder unless absolute.

@@ -42,6 +42,11 @@ Case file keys (all lengths in metres, SI units; keys mirror the flags of
     kind = "drag" | "lift"   expected, tolerance: C_D (C_L) of surfaces, plateaus
     kind = "no-drift"        no drift of drag with size flagged in a sweep
 
+With ffcg solution files (docs/cgns-text-format.md) the [flow],
+[freestream] and [reference] tables may be left out: the ReferenceState
+gives the freestream and references, and without a [near] table the
+BCWall-type patches give the near field (keys still override).
+
 Unknown keys are errors, reported with their line. On bad input (exit code
 2) no JUnit report or plot is written.`,
 	examples: []example{
@@ -182,12 +187,19 @@ func runCase(prog *progress, cf *caseFile) (*caseRun, error) {
 		return nil, err
 	}
 	r := &caseRun{Schema: checkSchema, Case: cf.path, Setup: p.setup, Notice: notice}
-	if nf.given() {
+	if nf.active(p) {
 		prog.step("near field")
 		if r.Near, err = nf.compute(p); err != nil {
 			return nil, err
 		}
 		prog.done()
+	}
+	if r.Near == nil {
+		for _, g := range cf.Gates {
+			if gateKinds[g.Kind].near {
+				return nil, inputErr(fmt.Errorf("case file %s: gate %q needs a near field: add a [near] table, or BCWall patches to the ffcg files", cf.path, g.Name))
+			}
+		}
 	}
 	for _, s := range cf.Surfaces {
 		shape, err := parseShape("farforce check", s.Spec)

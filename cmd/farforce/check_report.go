@@ -16,7 +16,10 @@ func writeCheckText(w io.Writer, r *caseRun) {
 	if r.Near != nil {
 		n := r.Near
 		src := "wall file " + n.File
-		if n.Source != "wall file" {
+		switch n.Source {
+		case "wall patches":
+			src = "wall patches " + strings.Join(n.Patches, ", ")
+		case "volume mesh":
 			src = "mesh boundary inside " + n.Inside
 		}
 		if coef {

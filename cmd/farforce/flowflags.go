@@ -56,13 +56,11 @@ func (fl *flowFlags) define(fs *pflag.FlagSet) {
 }
 
 // check validates the flags that need no field and parses the vector
-// flags.
+// flags. A missing freestream is found later (fl.freestream), since an
+// ffcg file's ReferenceState may give it.
 func (fl *flowFlags) check(fs *pflag.FlagSet) error {
 	if fl.freeVelocity != "" && fs.Changed("speed") {
 		return errors.New("give either --freestream-velocity or --speed/--alpha/--beta, not both")
-	}
-	if fl.freeVelocity == "" && !fs.Changed("speed") {
-		return errors.New("no freestream: give --freestream-velocity X,Y,Z or --speed S [--alpha DEG] [--beta DEG]")
 	}
 	if fl.viscosity != "" && fl.kinViscosity != "" {
 		return errors.New("give either --viscosity or --kinematic-viscosity, not both")

@@ -40,7 +40,16 @@ constant in SI units. Every constant used is echoed in the report.
 With --wall FILE (a wall surface file) or --inside SPEC (the mesh boundary
 inside SPEC), see 'farforce wall', the near-field force on the body is
 computed too and each surface is compared with it: far minus near in
-coefficients, drag counts and percent of the near-field drag.`,
+coefficients, drag counts and percent of the near-field drag.
+
+An ffcg file (docs/cgns-text-format.md) needs none of these flags: its
+ReferenceState gives what no flag sets (VelocityX/Y/Z the freestream,
+Density the density for q∞ and, without a density array, of the flow,
+Pressure p∞, LengthReference the reference length, AreaReference the
+reference area, ViscosityMolecular a constant μ), and its BCWall-type
+patches give the near field, with p and τ from the adjacent cells
+(--no-bc-wall turns that off). The report says where each constant came
+from.`,
 	examples: []example{
 		{"farforce forces cyl.vtk --surface 'circle center=0.2,0.2 radius=0.1' --speed 0.2 --density 1 --viscosity 0.001 --ref-length 0.1",
 			"2D: drag and lift per unit span on a circle of radius 0.1, coefficients on a 0.1 m chord"},
@@ -122,7 +131,7 @@ func (c *forcesImpl) run(e *env, args []string) error {
 			}
 		}
 	}
-	if c.near.given() {
+	if c.near.active(p) {
 		return c.near.printForcesWithNear(e, p, rep, c.json, c.csv)
 	}
 	switch {

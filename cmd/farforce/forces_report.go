@@ -80,6 +80,7 @@ func writeSetupText(w io.Writer, s *setupReport, q float64, axes *integrate.Axes
 	for _, warn := range s.Warnings {
 		fmt.Fprintf(w, "  warning: %s\n", warn)
 	}
+	writeCaseText(w, s.Case)
 }
 
 func orNone(s string) string {

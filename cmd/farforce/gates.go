@@ -66,8 +66,8 @@ func (c *caseFile) checkGate(i int, names map[string]bool) *fieldError {
 		return at("kind %s needs expected = X and tolerance = T ≥ 0", g.Kind)
 	case !k.expected && (g.Expected != nil || g.Tolerance != nil):
 		return at("kind %s takes no expected or tolerance", g.Kind)
-	case k.near && c.Near == nil:
-		return at("kind %s needs a [near] table (wall file or inside spec)", g.Kind)
+	case k.near && c.Near == nil && !c.ffcgFiles():
+		return at("kind %s needs a [near] table (wall file or inside spec), or ffcg files with BCWall patches", g.Kind)
 	case k.sweeps && len(c.Sweeps) == 0:
 		return at("kind %s needs a [[sweep]]", g.Kind)
 	case g.On != "" && !names[g.On]:

@@ -26,6 +26,20 @@ type inspectReport struct {
 	Mapping   mappingReport  `json:"mapping"`
 	Notes     []string       `json:"mapping_notes"`
 	Warnings  []string       `json:"warnings"`
+	// Reference and Patches are the case information of ffcg files (the
+	// ReferenceState quantities and the BC patches); absent otherwise.
+	Reference map[string]float64 `json:"reference_state,omitempty"`
+	Patches   []patchEcho        `json:"patches,omitempty"`
+}
+
+// addCase adds the case information cd of the files to the report.
+func (r *inspectReport) addCase(cd *caseData) {
+	if !cd.hasInfo() {
+		return
+	}
+	r.Reference = cd.Reference
+	r.Patches = describePatches(cd)
+	r.Warnings = append(r.Warnings, cd.Warnings...)
 }
 
 type boundsReport struct {

@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"io"
+	"sort"
 	"strings"
 	"text/tabwriter"
 
@@ -59,6 +60,8 @@ func writeInspectText(w io.Writer, r *inspectReport) {
 		fmt.Fprintf(w, "  %s\n", n)
 	}
 
+	writeInspectCase(w, r)
+
 	fmt.Fprintln(w, "\nWarnings")
 	if len(r.Warnings) == 0 {
 		fmt.Fprintln(w, "  none")
@@ -88,4 +91,30 @@ func numPtr(v *float64) string {
 		return "-"
 	}
 	return num(*v)
+}
+
+// writeInspectCase prints the ReferenceState and BC patches of ffcg files
+// (nothing for files without them).
+func writeInspectCase(w io.Writer, r *inspectReport) {
+	if len(r.Reference) > 0 {
+		fmt.Fprintln(w, "\nReferenceState (fills the freestream and references no flag sets)")
+		keys := make([]string, 0, len(r.Reference))
+		for k := range r.Reference {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		t := &table{header: []string{"quantity", "value"}, align: "lr"}
+		for _, k := range keys {
+			t.add(k, num(r.Reference[k]))
+		}
+		t.write(w)
+	}
+	if len(r.Patches) > 0 {
+		fmt.Fprintln(w, "\nBC patches")
+		t := &table{header: []string{"name", "type", "zone", "faces", "points", "role"}, align: "llrrrl"}
+		for _, p := range r.Patches {
+			t.add(p.Name, p.Type, fmt.Sprint(p.Zone), fmt.Sprint(p.Faces), fmt.Sprint(p.Points), p.Role)
+		}
+		t.write(w)
+	}
 }

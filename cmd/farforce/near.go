@@ -24,6 +24,7 @@ type nearFlags struct {
 	skinFriction string // or its skin-friction coefficient array
 	insidePoint  string // a point inside the body, for open walls
 	inside       string // surface spec enclosing the body's boundary faces
+	noBCWall     bool   // ignore the wall patches of ffcg files
 }
 
 // define registers the near-field flags on fs.
@@ -35,10 +36,18 @@ func (n *nearFlags) define(fs *pflag.FlagSet) {
 	fs.StringVar(&n.skinFriction, "skin-friction", "", "skin-friction coefficient vector array `NAME` (τ·n/q∞) instead of --wall-shear")
 	fs.StringVar(&n.insidePoint, "wall-inside-point", "", "a point `X,Y,Z` inside the body, to orient a wall that is not closed")
 	fs.StringVar(&n.inside, "inside", "", "near field from the volume mesh: its boundary faces enclosed by the surface `SPEC`")
+	fs.BoolVar(&n.noBCWall, "no-bc-wall", false, "do not take the near field from the BCWall patches of an ffcg file")
 }
 
-// given reports whether a near-field source was selected.
+// given reports whether a near-field source was selected by flag.
 func (n *nearFlags) given() bool { return n.wall != "" || n.inside != "" }
+
+// active reports whether a near field is to be computed for the prepared
+// field p: a source was selected by flag, or p's files carry wall patches
+// (BCWall and its variants) and --no-bc-wall is not given.
+func (n *nearFlags) active(p *preparedFlow) bool {
+	return n.given() || (!n.noBCWall && len(p.info.walls()) > 0)
+}
 
 // check validates the near-field flags that need no data.
 func (n *nearFlags) check() error {
@@ -63,10 +72,13 @@ func (n *nearFlags) check() error {
 // integrate.NearResult gives the numbers (pressure, friction, force,
 // coefficients, ...).
 type nearReport struct {
-	// Source is "wall file" or "volume mesh".
+	// Source is "wall file", "volume mesh" or "wall patches".
 	Source string `json:"source"`
 	File   string `json:"file,omitempty"`
 	Inside string `json:"inside,omitempty"`
+	// Patches names the BC patches of the files used as the wall (source
+	// "wall patches").
+	Patches []string `json:"patches,omitempty"`
 	// Arrays are the wall file's arrays used (pressure, shear or
 	// skin_friction).
 	Arrays map[string]string `json:"arrays,omitempty"`
@@ -218,8 +230,37 @@ func (n *nearFlags) compute(p *preparedFlow) (*nearReport, error) {
 		return n.fromWall(p.opt)
 	case n.inside != "":
 		return n.fromVolume(p)
+	case n.active(p):
+		return n.fromPatches(p)
 	}
 	return nil, nil
+}
+
+// fromPatches integrates p and τ of the prepared volume field over the
+// faces of its files' wall patches, taken from the adjacent cells as
+// fromVolume does.
+func (n *nearFlags) fromPatches(p *preparedFlow) (*nearReport, error) {
+	walls := p.info.walls()
+	faces, missing, err := patchFaces(p.loc.Field(), walls)
+	if err != nil {
+		return nil, inputErr(err)
+	}
+	if len(faces) == 0 {
+		return nil, inputErr(fmt.Errorf("wall patches %s: none of their faces is a boundary face of a fluid cell (--no-bc-wall skips the near field)", patchNames(walls)))
+	}
+	res, err := integrate.NearFieldVolume(p.loc, p.flow, faces, p.opt)
+	if err != nil {
+		return nil, inputErr(fmt.Errorf("near field on the wall patches %s: %w (--no-bc-wall skips it)", patchNames(walls), err))
+	}
+	names := make([]string, len(walls))
+	for i, w := range walls {
+		names[i] = w.Name
+	}
+	notes := []string{fmt.Sprintf("%d faces of the wall patches %s; p and τ from the adjacent cells (one-sided gradients); --wall, --inside or --no-bc-wall choose otherwise", len(faces), patchNames(walls))}
+	if missing > 0 {
+		notes = append(notes, fmt.Sprintf("%d patch faces are not boundary faces of a fluid cell (blanked or interior) and were left out", missing))
+	}
+	return &nearReport{Source: "wall patches", Patches: names, Notes: notes, NearResult: res}, nil
 }
 
 // newInsideTest returns the inside test of shape s (its Contains method)

@@ -27,6 +27,9 @@ type setupReport struct {
 	// Warnings are the reader's remarks on the field and the cells the
 	// mask blanked.
 	Warnings []string `json:"warnings"`
+	// Case is what the files' case information (ffcg ReferenceState and
+	// BC patches) supplied; absent for files without it.
+	Case *caseEcho `json:"case,omitempty"`
 }
 
 type freestreamEcho struct {
@@ -42,16 +45,35 @@ type preparedFlow struct {
 	flow  *field.FlowSampler
 	opt   integrate.Options
 	setup setupReport
+	// info is the case information of the files (nil or empty for legacy
+	// VTK).
+	info *caseData
 }
 
 // prepare builds the locator, the sampler and the integration options of
-// field f from the flags (already checked). Errors are bad input.
+// field f from the flags (already checked), for files without case
+// information. Errors are bad input.
 func (fl *flowFlags) prepare(fs *pflag.FlagSet, files []string, f *field.Field) (*preparedFlow, error) {
-	m, err := fl.flowMap(f)
+	return fl.prepareCase(fs, files, f, nil)
+}
+
+// prepareCase is prepare for files with case information cd (nil: none):
+// the ReferenceState supplies what the flags leave unset (see
+// fl.caseOptions and fl.flowMapCase), and its wall patches become the
+// default near field.
+func (fl *flowFlags) prepareCase(fs *pflag.FlagSet, files []string, f *field.Field, cd *caseData) (*preparedFlow, error) {
+	var echo *caseEcho
+	if cd.hasInfo() {
+		echo = &caseEcho{Sources: map[string]string{}, Patches: describePatches(cd)}
+	}
+	m, err := fl.flowMapCase(f, cd, echo)
 	if err != nil {
 		return nil, inputErr(err)
 	}
 	warnings := append([]string{}, f.Warnings...)
+	if cd != nil {
+		warnings = append(warnings, cd.Warnings...)
+	}
 	if m.Mask != "" {
 		n, err := field.ApplyMask(f, m.Mask)
 		if err != nil {
@@ -68,36 +90,11 @@ func (fl *flowFlags) prepare(fs *pflag.FlagSet, files []string, f *field.Field) 
 		return nil, inputErr(fmt.Errorf("flow mapping: %w (see 'farforce inspect' for the arrays)", err))
 	}
 	dim := loc.Dim()
-	opt := integrate.Options{
-		RefArea:      fl.refArea,
-		RefLength:    fl.refLength,
-		Plain:        fl.form == "plain",
-		NoConvection: fl.noConvection,
-		Workers:      fl.workers,
-	}
-	opt.Free.P = fl.freePressure
-	if fl.freeVelocity != "" {
-		opt.Free.V = fl.freeV
-	} else if opt.Free.V, err = integrate.FreestreamFromAngles(fl.speed, fl.alpha, fl.beta, dim); err != nil {
+	opt, err := fl.caseOptions(fs, dim, m.Density, cd, echo)
+	if err != nil {
 		return nil, inputErr(err)
 	}
-	switch {
-	case fs.Changed("freestream-density"):
-		opt.Free.Rho = fl.freeDensity
-	case m.Density.Name == "":
-		opt.Free.Rho = m.Density.Value
-	case fl.refArea > 0 || fl.refLength > 0:
-		return nil, inputErr(fmt.Errorf("density is the array %q: give --freestream-density for the coefficients", m.Density.Name))
-	}
-	if fl.up != "" {
-		opt.Up = fl.upV
-	} else if dim == 2 {
-		opt.Up = [3]float64{0, 1, 0}
-	} else {
-		opt.Up = [3]float64{0, 0, 1}
-	}
-	opt.MomentCenter = fl.centerV
-	if dim == 3 && fs.Changed("ref-length") && !fs.Changed("ref-area") {
+	if dim == 3 && fs.Changed("ref-length") && !fs.Changed("ref-area") && opt.RefArea == 0 {
 		return nil, inputErr(fmt.Errorf("3D field: coefficients need --ref-area (--ref-length only scales moments)"))
 	}
 	speed := math.Sqrt(opt.Free.V[0]*opt.Free.V[0] + opt.Free.V[1]*opt.Free.V[1] + opt.Free.V[2]*opt.Free.V[2])
@@ -109,6 +106,7 @@ func (fl *flowFlags) prepare(fs *pflag.FlagSet, files []string, f *field.Field) 
 		loc:  loc,
 		flow: flow,
 		opt:  opt,
+		info: cd,
 		setup: setupReport{
 			Files:     files,
 			Dimension: dim,
@@ -123,6 +121,7 @@ func (fl *flowFlags) prepare(fs *pflag.FlagSet, files []string, f *field.Field) 
 			Form:         form,
 			Workers:      fl.workers,
 			Warnings:     warnings,
+			Case:         echo,
 		},
 	}, nil
 }

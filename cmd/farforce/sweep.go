@@ -117,7 +117,7 @@ func (c *sweepImpl) run(e *env, args []string) error {
 		return err
 	}
 	var near *nearReport
-	if c.near.given() {
+	if c.near.active(p) {
 		prog.step("near field")
 		if near, err = c.near.compute(p); err != nil {
 			return err

@@ -3,6 +3,7 @@ package main
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/spf13/pflag"
 
@@ -13,14 +14,14 @@ import (
 var wallCommand = &command{
 	name:    "wall",
 	summary: "near-field force: integrate pressure and wall friction over the body surface",
-	usage:   "[FLAGS] --wall FILE | [FLAGS] FILE... --inside SPEC",
+	usage:   "[FLAGS] --wall FILE | [FLAGS] FILE... --inside SPEC | [FLAGS] FILE.ffcg...",
 	about: `Integrates the surface loads over the body itself, the classical near-field
 force that far-field numbers are checked against (per unit span in 2D):
 
     F = ∮ [ -(p - p∞) n + τ·n ] dA,   n out of the body into the fluid
 
 reported as its pressure and friction parts, in mesh and wind axes, with
-coefficients. The loads come from either
+coefficients. The loads come from one of
 
   --wall FILE     a surface file (VTK POLYDATA: polygons in 3D, lines in 2D)
                   with a pressure (or C_p) array and a wall-shear traction
@@ -33,6 +34,11 @@ coefficients. The loads come from either
                   lies inside the surface SPEC (which must enclose the body
                   wall and no other boundary), with p and τ taken from the
                   adjacent cells.
+  (neither)       an ffcg volume FILE... (docs/cgns-text-format.md): the
+                  faces of its BCWall-type patches (BCWall, BCWallViscous,
+                  BCWallInviscid, ...), with p and τ from the adjacent cells
+                  as for --inside; its ReferenceState gives the freestream
+                  and references that no flag sets (see 'farforce forces').
 
 The freestream and reference flags set the wind axes and coefficients as in
 'farforce forces'; with --wall alone no volume file is needed, and the
@@ -80,8 +86,8 @@ func (c *wallImpl) run(e *env, args []string) error {
 	if err := c.near.check(); err != nil {
 		return usageErr(cmd, "%v", err)
 	}
-	if !c.near.given() {
-		return usageErr(cmd, "wall: give --wall FILE, or the volume FILE... with --inside SPEC")
+	if !c.near.given() && len(args) == 0 {
+		return usageErr(cmd, "wall: give --wall FILE, the volume FILE... with --inside SPEC, or an ffcg FILE with BCWall patches")
 	}
 	if c.near.wall != "" && len(args) > 0 {
 		return usageErr(cmd, "wall: --wall FILE takes no volume files (got %q); use --inside SPEC to take the wall from a volume mesh", args[0])
@@ -104,7 +110,8 @@ func (c *wallImpl) run(e *env, args []string) error {
 }
 
 // wallRun computes the near field selected by near (flags already
-// checked): from the wall file alone, or from the volume files.
+// checked): from the wall file alone, or from the volume files (the
+// boundary inside --inside, else the wall patches of ffcg files).
 func wallRun(e *env, fs *pflag.FlagSet, fl *flowFlags, near *nearFlags, files []string) (*wallReport, error) {
 	prog := newProgress(e)
 	if near.wall != "" {
@@ -120,8 +127,11 @@ func wallRun(e *env, fs *pflag.FlagSet, fl *flowFlags, near *nearFlags, files []
 	if err != nil {
 		return nil, err
 	}
-	prog.step("extracting and integrating the wall inside %s", near.inside)
-	r, err := near.fromVolume(p)
+	if !near.active(p) {
+		return nil, usageErr("farforce wall", "wall: no near field: %s has no BCWall patch (or --no-bc-wall was given): give --inside SPEC (the boundary faces around the body) or --wall FILE", strings.Join(files, ", "))
+	}
+	prog.step("integrating the wall loads from the volume mesh")
+	r, err := near.compute(p)
 	if err != nil {
 		return nil, err
 	}
@@ -129,17 +139,17 @@ func wallRun(e *env, fs *pflag.FlagSet, fl *flowFlags, near *nearFlags, files []
 	return &wallReport{Schema: wallSchema, Setup: p.setup, Near: r, Notice: notice}, nil
 }
 
-// loadPrepared reads the solution files and prepares them for cutting and
-// integrating, with progress.
+// loadPrepared reads the solution files with their case information
+// (loadWithCase) and prepares them for cutting and integrating, with progress.
 func loadPrepared(prog *progress, fs *pflag.FlagSet, fl *flowFlags, files []string) (*preparedFlow, error) {
 	prog.step("reading %d file(s)", len(files))
-	f, err := loadField(files, readers.Options{Workers: fl.workers})
+	f, cd, err := loadWithCase(files, readers.Options{Workers: fl.workers})
 	if err != nil {
 		return nil, err
 	}
 	prog.done()
 	prog.step("indexing %d cells and preparing the arrays", f.NumCells())
-	p, err := fl.prepare(fs, files, f)
+	p, err := fl.prepareCase(fs, files, f, cd)
 	if err != nil {
 		return nil, err
 	}
@@ -190,9 +200,7 @@ func (fl *flowFlags) wallOptions(fs *pflag.FlagSet, dim int) (integrate.Options,
 	opt := integrate.Options{RefArea: fl.refArea, RefLength: fl.refLength, Workers: fl.workers}
 	opt.Free.P = fl.freePressure
 	var err error
-	if fl.freeVelocity != "" {
-		opt.Free.V = fl.freeV
-	} else if opt.Free.V, err = integrate.FreestreamFromAngles(fl.speed, fl.alpha, fl.beta, dim); err != nil {
+	if opt.Free.V, err = fl.freestream(fs, dim, nil, nil); err != nil {
 		return opt, err
 	}
 	switch {

@@ -65,6 +65,9 @@ func writeNearText(w io.Writer, n *nearReport) {
 		fmt.Fprintf(w, "Near field: wall file %s (arrays: %s)\n", n.File, strings.Join(keys, ", "))
 		fmt.Fprintf(w, "  %s %s, %d facets, %d part(s) (%d open), %d facets turned to point out of the body\n",
 			measure, num(n.Area), n.Facets, n.Parts, n.Open, n.Flipped)
+	case "wall patches":
+		fmt.Fprintf(w, "Near field: wall patches %s of the volume mesh\n", strings.Join(n.Patches, ", "))
+		fmt.Fprintf(w, "  %s %s, %d faces\n", measure, num(n.Area), n.Facets)
 	default:
 		fmt.Fprintf(w, "Near field: boundary of the volume mesh inside %s\n", n.Inside)
 		fmt.Fprintf(w, "  %s %s, %d faces\n", measure, num(n.Area), n.Facets)
