@@ -88,9 +88,9 @@ var (
 	guessPressure    = []string{"p", "pressure", "Pressure", "PRESSURE", "P", "pMean", "static_pressure"}
 	guessDensity     = []string{"rho", "density", "Density", "DENSITY", "Rho"}
 	guessDynVisc     = []string{"mu", "ViscosityMolecular", "Laminar_Viscosity", "dynamic_viscosity", "viscosity", "Viscosity"}
-	guessKinVisc     = []string{"nu", "kinematic_viscosity"}
+	guessKinVisc     = []string{"nu", "ViscosityKinematic", "kinematic_viscosity"}
 	guessEddyDyn     = []string{"mut", "ViscosityEddy", "Eddy_Viscosity", "eddy_viscosity", "mu_t"}
-	guessEddyKin     = []string{"nut", "nuTilda_t", "nu_t"}
+	guessEddyKin     = []string{"nut", "ViscosityEddyKinematic", "nu_t"}
 	guessReynolds    = []string{"R", "ReynoldsStress", "Reynolds_Stress", "UPrime2Mean"}
 	guessMask        = []string{"solid", "blank", "Blank", "vtkGhostType", "iblank", "IBLANK"}
 	guessVectorComps = map[int]bool{2: true, 3: true}

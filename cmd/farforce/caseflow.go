@@ -137,21 +137,18 @@ func (fl *flowFlags) caseOptions(fs *pflag.FlagSet, dim int, density field.Quant
 	return opt, nil
 }
 
-// SIDS names of flow quantities (FORMATS.md §2, transport properties):
-// the kinematic viscosities are array names that field.GuessFlowMap does
-// not try; the others are ReferenceState constants used here.
+// SIDS names of the ReferenceState constants used here (FORMATS.md §2,
+// transport properties).
 const (
 	sidsKinViscosity = "ViscosityKinematic"
-	sidsKinEddy      = "ViscosityEddyKinematic"
 	sidsDynViscosity = "ViscosityMolecular"
 	sidsDensity      = "Density"
 )
 
 // flowMapCase returns the flow mapping of f: the guess with the flags over
 // it (fl.flowMap), then, for quantities that neither gave and when the
-// files carried case information, the SIDS kinematic viscosity arrays
-// (ViscosityKinematic, ViscosityEddyKinematic) and the ReferenceState
-// constants Density, ViscosityMolecular or ViscosityKinematic (a constant
+// files carried case information, the ReferenceState constants Density,
+// ViscosityMolecular or ViscosityKinematic (a constant
 // fluid property, as an incompressible solver writes it). echo records the
 // sources taken from the file; it must not be nil when cd has information
 // (prepareCase makes it so).
@@ -161,12 +158,8 @@ func (fl *flowFlags) flowMapCase(f *field.Field, cd *caseData, echo *caseEcho) (
 		return m, err
 	}
 	unset := func(q field.Quantity) bool { return q.Name == "" && q.Value == 0 }
-	z := f.Zones[0]
-	scalar := func(name string) bool { a := z.Array(name); return a != nil && a.Components == 1 }
 	if unset(m.Viscosity) && fl.viscosity == "" && fl.kinViscosity == "" {
 		switch {
-		case scalar(sidsKinViscosity):
-			m.Viscosity, m.KinematicViscosity = field.Quantity{Name: sidsKinViscosity}, true
 		case hasRef(cd, sidsDynViscosity):
 			v, _ := cd.ref(sidsDynViscosity)
 			m.Viscosity, m.KinematicViscosity = field.Quantity{Value: v}, false
@@ -176,9 +169,6 @@ func (fl *flowFlags) flowMapCase(f *field.Field, cd *caseData, echo *caseEcho) (
 			m.Viscosity, m.KinematicViscosity = field.Quantity{Value: v}, true
 			echo.Sources["viscosity"] = refSource(sidsKinViscosity)
 		}
-	}
-	if unset(m.EddyViscosity) && fl.eddy == "" && fl.kinEddy == "" && scalar(sidsKinEddy) {
-		m.EddyViscosity, m.EddyKinematic = field.Quantity{Name: sidsKinEddy}, true
 	}
 	if unset(m.Density) && fl.density == "" && hasRef(cd, sidsDensity) {
 		v, _ := cd.ref(sidsDensity)
