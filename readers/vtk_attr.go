@@ -102,6 +102,9 @@ func (f *vtkFile) attribute(k keyLine) error {
 // values of type t at the current location, then any METADATA block.
 func (f *vtkFile) array(sec, name string, comps int, n int64, t dtype) error {
 	total := n * int64(comps)
+	// Whatever happens to the values (read, skipped), the stream must hold
+	// them, so they back an implicit grid of up to 8n points (see build).
+	f.backed = max(f.backed, n)
 	what := fmt.Sprintf("values of %q (%d × %d)", name, n, comps)
 	if t.kind == kString {
 		f.s.warn("string array %q skipped", name)

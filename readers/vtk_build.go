@@ -6,9 +6,12 @@ import (
 	"farforce/field"
 )
 
-// implicitLimit bounds the points a structured grid may declare beyond
-// what the bytes read can back (24 bytes of coordinates per point are
-// synthesised from DIMENSIONS alone): 65536 points plus 8 per byte read.
+// implicitLimit bounds the points a STRUCTURED_POINTS or RECTILINEAR_GRID
+// dataset may declare beyond what its data can back (24 bytes of
+// coordinates per point are synthesised from DIMENSIONS alone): 65536
+// points plus 8 per tuple of the largest attribute array the stream held
+// (a grid has at most 8 times as many points as cells). Bytes alone do not
+// count: blank lines or comments cost nothing to compress.
 const implicitLimit = 1 << 16
 
 // build assembles the zone after the whole stream has been read.
@@ -25,8 +28,8 @@ func (f *vtkFile) build() (*field.Zone, error) {
 	var err error
 	switch f.dataset {
 	case "structured_points", "rectilinear_grid":
-		if int64(np) > implicitLimit+8*f.s.offset() {
-			return nil, f.errKey(end, fmt.Sprintf("a grid backed by the file's %d bytes", f.s.offset()), fmt.Sprintf("DIMENSIONS of %d points", np), ErrTooLarge)
+		if int64(np) > implicitLimit+8*f.backed {
+			return nil, f.errKey(end, fmt.Sprintf("a grid backed by its data (at most %d points for arrays of %d tuples)", implicitLimit+8*f.backed, f.backed), fmt.Sprintf("DIMENSIONS of %d points", np), ErrTooLarge)
 		}
 		z.Points = f.implicitPoints()
 		cells = structuredCells(f.dims)

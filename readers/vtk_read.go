@@ -38,6 +38,7 @@ type vtkFile struct {
 	pointArrays []field.Array
 	cellArrays  []field.Array
 	ghost       []float64 // cell ghost values (vtkGhostType, vtkGhostLevels)
+	backed      int64     // largest tuple count of any attribute array in the stream
 
 	pointsType    dtype // type of POINTS or of the RECTILINEAR_GRID axes
 	endianChecked bool  // the little-endian test has run
