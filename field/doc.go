@@ -30,13 +30,17 @@
 // conform with neighbouring tetrahedra; at the apex (t = 1) the map is
 // singular, and gradients are evaluated at t ≤ 1-1e-7 there.
 //
-// The inverse map (point to r) is solved directly for simplices and by
+// The inverse map (point to r) is solved directly for simplices and for
+// quads and hexahedra whose bilinear and trilinear coefficients are zero
+// (parallelograms and parallelepipeds, as in structured boxes), and by
 // Newton's method from the cell's centroid otherwise, on the map written as
 // x = a + b r + c s + d t + e rs + f st + g tr + h rst (every non-simplex
 // type has this form); steps are kept in [-1,2]³, and the iteration stops
-// when the step is below 1e-13 (2-6 iterations inside a valid cell, also a
-// strongly distorted one) or when it has nearly converged to a point
-// clearly outside. A point is in a cell when its
+// when the step is below 1e-9 (quadratic convergence leaves an error of
+// about its square; 2-6 iterations inside a valid cell, also a strongly
+// distorted one) or when it has nearly converged to a point clearly
+// outside. CellMap gathers a cell once for many points (the cutter's
+// quadrature points) and gives the same bits as InCell. A point is in a cell when its
 // local coordinates lie in the reference cell within 1e-9 (relative to the
 // cell's size). 2D cells use x and y only. Shape-function gradients are
 // ∇_x N = J⁻ᵀ ∇_r N with J = ∂x/∂r.

@@ -227,6 +227,20 @@ func lsqSolve(A []float64, m, n int, B []float64, k int, X []float64, tol float6
 	return true
 }
 
+// reflectColumn applies the Householder reflection I − 2vvᵀ/(vᵀv), with
+// v = A[j:m, j] (A has row stride n) and vnorm2 = vᵀv, to rows j..m−1 of
+// column c of X (row stride k): x −= (2 vᵀx / vᵀv) v.
+func reflectColumn(A []float64, n, j, m int, vnorm2 float64, X []float64, k, c int) {
+	s := 0.0
+	for i := j; i < m; i++ {
+		s += A[i*n+j] * X[i*k+c]
+	}
+	s = 2 * s / vnorm2
+	for i := j; i < m; i++ {
+		X[i*k+c] -= s * A[i*n+j]
+	}
+}
+
 // householder reduces A (m×n) to R by Householder reflections, applying
 // them to B (m×k) too: on return the strict upper triangle of A's first n
 // rows holds R above its diagonal, and diag holds R_jj. ok is false when
@@ -254,24 +268,10 @@ func householder(A []float64, m, n int, B []float64, k int, tol float64) (diag [
 			continue
 		}
 		for c := j + 1; c < n; c++ {
-			s := 0.0
-			for i := j; i < m; i++ {
-				s += A[i*n+j] * A[i*n+c]
-			}
-			s = 2 * s / vnorm2
-			for i := j; i < m; i++ {
-				A[i*n+c] -= s * A[i*n+j]
-			}
+			reflectColumn(A, n, j, m, vnorm2, A, n, c)
 		}
 		for c := 0; c < k; c++ {
-			s := 0.0
-			for i := j; i < m; i++ {
-				s += A[i*n+j] * B[i*k+c]
-			}
-			s = 2 * s / vnorm2
-			for i := j; i < m; i++ {
-				B[i*k+c] -= s * A[i*n+j]
-			}
+			reflectColumn(A, n, j, m, vnorm2, B, k, c)
 		}
 	}
 	big := 0.0

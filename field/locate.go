@@ -28,7 +28,7 @@ func (l *Locator) inBox(g int32, p [3]float64) bool {
 func (l *Locator) Locate(p [3]float64) (Location, bool) {
 	var b int
 	for k := l.dim - 1; k >= 0; k-- {
-		f := (p[k] - l.lo[k]) * l.inv[k]
+		f := l.binCoord(k, p[k])
 		if !(f >= -1e-9*float64(l.n[k])) || f > float64(l.n[k])*(1+1e-9) {
 			return Location{}, false
 		}
@@ -58,24 +58,76 @@ func (l *Locator) Locate(p [3]float64) (Location, bool) {
 // when p lies outside the cell (beyond the relative tolerance 1e-9 in local
 // coordinates), when ref does not exist, or when the cell has no shape
 // functions (vertices, lines, polygons) or is degenerate. The cell may be
-// blank or of another dimension than the index.
+// blank or of another dimension than the index. To locate many points in
+// one cell, prepare a CellMap once instead.
 func (l *Locator) InCell(ref CellRef, p [3]float64) (Location, bool) {
-	if ref.Zone < 0 || int(ref.Zone) >= len(l.f.Zones) {
+	var m CellMap
+	if !l.MapCell(ref, &m) {
 		return Location{}, false
+	}
+	return m.Local(p)
+}
+
+// CellMap is the inverse shape-function map of one cell, prepared once by
+// Locator.MapCell for locating many points in that cell: it keeps the
+// node coordinates, the padded bounding box and the parts of the inverse
+// map that do not depend on the point. Local gives the same answer as
+// InCell. A CellMap is a plain value (about 700 bytes, no pointers); Local
+// does not modify it and is safe for concurrent use.
+type CellMap struct {
+	ref    CellRef
+	g      cellGeom
+	im     inverseMap // for non-simplices
+	lo, hi [3]float64 // bounding box padded as in the index
+}
+
+// MapCell prepares m for the cell ref and reports whether that cell has
+// shape functions: it is false, and m unusable, when ref does not exist
+// or is a vertex, line or polygon.
+func (l *Locator) MapCell(ref CellRef, m *CellMap) bool {
+	if ref.Zone < 0 || int(ref.Zone) >= len(l.f.Zones) {
+		return false
 	}
 	z := l.f.Zones[ref.Zone]
 	if ref.Cell < 0 || int(ref.Cell) >= len(z.Types) {
-		return Location{}, false
+		return false
 	}
-	var g cellGeom
-	if !z.gather(int(ref.Cell), &g) || !g.nearBox(p) {
-		return Location{}, false
+	g := &m.g
+	if !z.gather(int(ref.Cell), g) {
+		return false
 	}
-	r, ok := g.local(p)
+	m.ref = ref
+	h := 0.0
+	for k := 0; k < g.dim; k++ {
+		lo, hi := g.x[0][k], g.x[0][k]
+		for i := 1; i < g.n; i++ {
+			lo, hi = min(lo, g.x[i][k]), max(hi, g.x[i][k])
+		}
+		m.lo[k], m.hi[k] = lo, hi
+		h = max(h, hi-lo)
+	}
+	pad := boxPad*h + 1e-300
+	for k := 0; k < g.dim; k++ {
+		m.lo[k], m.hi[k] = m.lo[k]-pad, m.hi[k]+pad
+	}
+	m.im.init(g)
+	return true
+}
+
+// Local returns the local coordinates of p in the prepared cell, with the
+// same result and tolerance as Locator.InCell.
+func (m *CellMap) Local(p [3]float64) (Location, bool) {
+	g := &m.g
+	for k := 0; k < g.dim; k++ {
+		if !(p[k] >= m.lo[k] && p[k] <= m.hi[k]) {
+			return Location{}, false
+		}
+	}
+	r, ok := m.im.local(p)
 	if !ok || !contains(g.t, r, localTol) {
 		return Location{}, false
 	}
-	return Location{Zone: ref.Zone, Cell: ref.Cell, Local: r}, true
+	return Location{Zone: m.ref.Zone, Cell: m.ref.Cell, Local: r}, true
 }
 
 // CellsInBox appends to dst the indexed cells whose padded bounding box
@@ -236,27 +288,6 @@ func (l *Locator) boxDist2(g int32, p [3]float64) float64 {
 		}
 	}
 	return d
-}
-
-// nearBox reports whether p lies in the bounding box of g padded as in the
-// index (boxPad times its largest extent), the same pre-test Locate applies.
-func (g *cellGeom) nearBox(p [3]float64) bool {
-	var lo, hi [3]float64
-	h := 0.0
-	for k := 0; k < g.dim; k++ {
-		lo[k], hi[k] = g.x[0][k], g.x[0][k]
-		for i := 1; i < g.n; i++ {
-			lo[k], hi[k] = math.Min(lo[k], g.x[i][k]), math.Max(hi[k], g.x[i][k])
-		}
-		h = math.Max(h, hi[k]-lo[k])
-	}
-	pad := boxPad*h + 1e-300
-	for k := 0; k < g.dim; k++ {
-		if !(p[k] >= lo[k]-pad && p[k] <= hi[k]+pad) {
-			return false
-		}
-	}
-	return true
 }
 
 // meanEdge returns the mean length of the edges of cell c (each edge of a

@@ -236,6 +236,12 @@ func (l *Locator) buildGrid(workers int) error {
 	return nil
 }
 
+// binCoord returns the continuous bin coordinate of x along axis k (bin i
+// spans [i, i+1)), the quantity binIndex truncates.
+func (l *Locator) binCoord(k int, x float64) float64 {
+	return (x - l.lo[k]) * l.inv[k]
+}
+
 // sizeGrid chooses bins of equal width s on every axis such that the box
 // [lo,hi] holds about binsPerCell*ncell of them, and returns the bin count.
 func (l *Locator) sizeGrid(lo, hi [3]float64, ncell int) int {
@@ -270,7 +276,7 @@ func (l *Locator) sizeGrid(lo, hi [3]float64, ncell int) int {
 
 // binIndex returns the bin coordinate of x along axis k, clamped to the grid.
 func (l *Locator) binIndex(k int, x float64) int {
-	f := (x - l.lo[k]) * l.inv[k]
+	f := l.binCoord(k, x)
 	if !(f > 0) { // also NaN and -Inf
 		return 0
 	}

@@ -173,9 +173,9 @@ func (g *cellGeom) size() float64 {
 	for i := 0; i < g.dim; i++ {
 		lo, hi := g.x[0][i], g.x[0][i]
 		for k := 1; k < g.n; k++ {
-			lo, hi = math.Min(lo, g.x[k][i]), math.Max(hi, g.x[k][i])
+			lo, hi = min(lo, g.x[k][i]), max(hi, g.x[k][i])
 		}
-		h = math.Max(h, hi-lo)
+		h = max(h, hi-lo)
 	}
 	return h
 }
@@ -196,6 +196,12 @@ func start(t CellType) [3]float64 {
 	return [3]float64{}
 }
 
+// newtonDone is the Newton step below which the iteration stops: with
+// quadratic convergence the remaining error is about the square of the
+// last step (times a factor of order one for a valid cell), below
+// rounding.
+const newtonDone = 1e-9
+
 // newtonIters bounds the Newton iterations of the inverse map; a point
 // inside a valid cell converges in 2-6 (quadratic convergence from the
 // centroid), so hitting the bound means the point is far outside or the
@@ -209,59 +215,166 @@ const newtonIters = 40
 // coordinates) found so before convergence. Simplices are inverted
 // directly; other types by Newton iteration from the centroid with steps
 // limited to the box [-1,2]^d, which keeps iterates near the cell for
-// distorted shapes.
+// distorted shapes (see inverseMap).
 func (g *cellGeom) local(p [3]float64) (r [3]float64, ok bool) {
-	switch g.t {
-	case Triangle, Tetra:
-		return g.localSimplex(p)
+	var im inverseMap
+	im.init(g)
+	return im.local(p)
+}
+
+// inverseMap is the prepared inverse of the map of a cell: for a quad,
+// hexahedron, wedge or pyramid its monomial coefficients, its length
+// scale, and the map and Jacobian at the Newton start, which do not depend
+// on the point. An affine map (every simplex; a quad or hexahedron whose
+// bilinear and trilinear coefficients are exactly zero, a parallelogram or
+// parallelepiped as in structured meshes) is inverted with the inverse
+// Jacobian kept here, without iterating.
+type inverseMap struct {
+	t      CellType
+	dim    int
+	m      multilinearMap
+	h      float64
+	r0, x0 [3]float64    // Newton start and the map there
+	j0     [3][3]float64 // Jacobian at r0
+	affine bool          // the bilinear and trilinear coefficients are 0
+	cof    [3][3]float64 // adjugate of j0 over its determinant (affine)
+	good   bool          // j0 is regular (solve3's test); cof is set when good and affine
+}
+
+// init prepares the inverse of the map of g.
+func (im *inverseMap) init(g *cellGeom) {
+	im.t, im.dim = g.t, g.dim
+	if g.t == Triangle || g.t == Tetra {
+		im.initSimplex(g)
+	} else {
+		im.m = g.multilinear()
+		im.h = im.m.scale()
+		im.r0 = start(g.t)
+		im.x0, im.j0 = im.m.eval(im.r0, g.dim)
+		im.affine = true
+		for i := 4; i < 8; i++ {
+			for k := 0; k < g.dim; k++ {
+				if im.m[i][k] != 0 {
+					im.affine = false
+				}
+			}
+		}
 	}
-	m := g.multilinear()
-	h := m.scale()
-	if !(h > 0) {
+	J := &im.j0
+	c0 := J[1][1]*J[2][2] - J[1][2]*J[2][1]
+	c1 := J[1][2]*J[2][0] - J[1][0]*J[2][2]
+	c2 := J[1][0]*J[2][1] - J[1][1]*J[2][0]
+	det := J[0][0]*c0 + J[0][1]*c1 + J[0][2]*c2
+	im.good = regular(J, det)
+	if !im.good || !im.affine {
+		return
+	}
+	inv := 1 / det
+	im.cof = [3][3]float64{
+		{c0 * inv, (J[0][2]*J[2][1] - J[0][1]*J[2][2]) * inv, (J[0][1]*J[1][2] - J[0][2]*J[1][1]) * inv},
+		{c1 * inv, (J[0][0]*J[2][2] - J[0][2]*J[2][0]) * inv, (J[0][2]*J[1][0] - J[0][0]*J[1][2]) * inv},
+		{c2 * inv, (J[0][1]*J[2][0] - J[0][0]*J[2][1]) * inv, (J[0][0]*J[1][1] - J[0][1]*J[1][0]) * inv},
+	}
+}
+
+// initSimplex prepares the affine map of a triangle or tetrahedron:
+// x = x_0 + J r with the edge vectors from node 0 as the columns of J.
+func (im *inverseMap) initSimplex(g *cellGeom) {
+	im.r0, im.x0, im.j0 = [3]float64{}, g.x[0], [3][3]float64{}
+	im.h = 0
+	for i := 0; i < g.dim; i++ {
+		for j := 0; j < g.dim; j++ {
+			im.j0[i][j] = g.x[j+1][i] - g.x[0][i]
+			im.h = max(im.h, math.Abs(im.j0[i][j]))
+		}
+	}
+	if g.dim == 2 {
+		im.j0[2][2] = 1
+	}
+	im.affine = true
+}
+
+// local returns the local coordinates of p (see cellGeom.local). An affine
+// map (every simplex) is inverted directly: Newton's method would reach
+// the same point, up to rounding, in one step and stop after a second; a
+// point whose coordinates leave [-1,2]^d, where Newton would stall at the
+// clamp, is reported outside.
+func (im *inverseMap) local(p [3]float64) (r [3]float64, ok bool) {
+	if !(im.h > 0) {
 		return r, false
 	}
-	r = start(g.t)
-	for it := 0; it < newtonIters; it++ {
-		x, J := m.eval(r, g.dim)
-		var res [3]float64
-		for i := 0; i < g.dim; i++ {
-			res[i] = p[i] - x[i]
+	if im.affine {
+		if !im.good {
+			return r, false
 		}
-		d, good := solve3(J, res)
+		var b [3]float64
+		for i := 0; i < im.dim; i++ {
+			b[i] = p[i] - im.x0[i]
+		}
+		ok = true
+		for i := 0; i < im.dim; i++ {
+			r[i] = im.r0[i] + (im.cof[i][0]*b[0] + im.cof[i][1]*b[1] + im.cof[i][2]*b[2])
+			if !(r[i] >= -1 && r[i] <= 2) {
+				ok = false
+				r[i] = max(-1, min(2, r[i]))
+			}
+		}
+		return r, ok
+	}
+	r = im.r0
+	for it := 0; it < newtonIters; it++ {
+		var d, res [3]float64
+		var good bool
+		if it == 0 {
+			for i := 0; i < im.dim; i++ {
+				res[i] = p[i] - im.x0[i]
+			}
+			d, good = solve3(im.j0, res)
+		} else {
+			d, res, good = im.m.newtonStep(r, p, im.dim)
+		}
 		if !good {
-			if g.t == Pyramid && math.Abs(r[2]-1) < 1e-6 {
+			if im.t == Pyramid && math.Abs(r[2]-1) < 1e-6 {
 				// At the apex the map is singular; the point is the apex.
-				return r, norm2(res) <= (localTol*h)*(localTol*h)
+				return r, norm2(res) <= (localTol*im.h)*(localTol*im.h)
 			}
 			return r, false
 		}
 		step := 0.0
-		for i := 0; i < g.dim; i++ {
+		for i := 0; i < im.dim; i++ {
 			r[i] += d[i]
-			step = math.Max(step, math.Abs(d[i]))
-			r[i] = math.Max(-1, math.Min(2, r[i]))
+			if a := math.Abs(d[i]); a > step || a != a {
+				step = a
+			}
+			if r[i] < -1 {
+				r[i] = -1
+			} else if r[i] > 2 {
+				r[i] = 2
+			}
 		}
-		if step < 1e-13 {
+		if step < newtonDone {
+			// Quadratic convergence: the next step would be of the order
+			// of step², below rounding.
 			return r, true
 		}
-		if step < 1e-7 && !contains(g.t, r, 1e-4) {
+		if step < 1e-7 && !contains(im.t, r, 1e-4) {
 			// Converging (quadratically) to a point clearly outside: the
 			// remaining error, about the size of the next step, is far
 			// below the distance to the reference cell.
 			return r, false
 		}
-		if g.t == Pyramid && r[2] > 1-1e-12 && r[2] < 1+1e-12 {
+		if im.t == Pyramid && r[2] > 1-1e-12 && r[2] < 1+1e-12 {
 			// Keep off the singular apex plane while iterating.
 			r[2] = 1 - 1e-12
 		}
 	}
 	// Accept a converged residual even if steps stagnated at rounding level.
-	x, _ := m.eval(r, g.dim)
+	x, _ := im.m.eval(r, im.dim)
 	var res [3]float64
-	for i := 0; i < g.dim; i++ {
+	for i := 0; i < im.dim; i++ {
 		res[i] = p[i] - x[i]
 	}
-	return r, norm2(res) <= (1e-12*h)*(1e-12*h)
+	return r, norm2(res) <= (1e-12*im.h)*(1e-12*im.h)
 }
 
 // multilinearMap is the map of a quad, hexahedron, wedge or pyramid written
@@ -322,6 +435,27 @@ func (m *multilinearMap) eval(r [3]float64, dim int) (x [3]float64, J [3][3]floa
 	return x, J
 }
 
+// newtonStep returns the Newton step d = J⁻¹ (p - x(r)) at r, the residual
+// p - x(r), and whether J is regular: eval followed by solve3, with the
+// same arithmetic, kept in registers.
+func (m *multilinearMap) newtonStep(r, p [3]float64, dim int) (d, res [3]float64, ok bool) {
+	u, v, w := r[0], r[1], r[2]
+	var J [3][3]float64
+	for k := 0; k < dim; k++ {
+		a, b, c, dd, e, f, g, h := m[0][k], m[1][k], m[2][k], m[3][k], m[4][k], m[5][k], m[6][k], m[7][k]
+		res[k] = p[k] - (a + b*u + c*v + dd*w + e*u*v + f*v*w + g*w*u + h*u*v*w)
+		J[k][0] = b + e*v + g*w + h*v*w
+		J[k][1] = c + e*u + f*w + h*u*w
+		J[k][2] = dd + f*v + g*u + h*u*v
+	}
+	if dim == 2 {
+		J[0][2], J[1][2] = 0, 0
+		J[2] = [3]float64{0, 0, 1}
+	}
+	d, ok = solve3(J, res)
+	return d, res, ok
+}
+
 // scale returns a length of the cell: the largest component of its edge
 // vectors b, c, d from node 0.
 func (m *multilinearMap) scale() float64 {
@@ -336,24 +470,6 @@ func (m *multilinearMap) scale() float64 {
 	return h
 }
 
-// localSimplex inverts the affine map of a triangle or tetrahedron.
-func (g *cellGeom) localSimplex(p [3]float64) (r [3]float64, ok bool) {
-	var J [3][3]float64
-	var b [3]float64
-	for i := 0; i < g.dim; i++ {
-		for j := 0; j < g.dim; j++ {
-			J[i][j] = g.x[j+1][i] - g.x[0][i]
-		}
-		b[i] = p[i] - g.x[0][i]
-	}
-	if g.dim == 2 {
-		J[2][2] = 1
-	}
-	r, ok = solve3(J, b)
-	r[2] *= float64(g.dim - 2) // zero for triangles
-	return r, ok
-}
-
 // solve3 solves J x = b by Cramer's rule. ok is false when J is singular
 // relative to the size of its entries.
 func solve3(J [3][3]float64, b [3]float64) (x [3]float64, ok bool) {
@@ -361,6 +477,19 @@ func solve3(J [3][3]float64, b [3]float64) (x [3]float64, ok bool) {
 	c1 := J[1][2]*J[2][0] - J[1][0]*J[2][2]
 	c2 := J[1][0]*J[2][1] - J[1][1]*J[2][0]
 	det := J[0][0]*c0 + J[0][1]*c1 + J[0][2]*c2
+	if !regular(&J, det) {
+		return x, false
+	}
+	inv := 1 / det
+	x[0] = (b[0]*c0 + b[1]*(J[0][2]*J[2][1]-J[0][1]*J[2][2]) + b[2]*(J[0][1]*J[1][2]-J[0][2]*J[1][1])) * inv
+	x[1] = (b[0]*c1 + b[1]*(J[0][0]*J[2][2]-J[0][2]*J[2][0]) + b[2]*(J[0][2]*J[1][0]-J[0][0]*J[1][2])) * inv
+	x[2] = (b[0]*c2 + b[1]*(J[0][1]*J[2][0]-J[0][0]*J[2][1]) + b[2]*(J[0][0]*J[1][1]-J[0][1]*J[1][0])) * inv
+	return x, true
+}
+
+// regular reports whether the determinant det of J is not negligible
+// relative to the product of the row sums of |J|.
+func regular(J *[3][3]float64, det float64) bool {
 	scale := 0.0
 	for i := 0; i < 3; i++ {
 		s := math.Abs(J[i][0]) + math.Abs(J[i][1]) + math.Abs(J[i][2])
@@ -370,14 +499,7 @@ func solve3(J [3][3]float64, b [3]float64) (x [3]float64, ok bool) {
 			scale *= s
 		}
 	}
-	if !(math.Abs(det) > 1e-14*scale) {
-		return x, false
-	}
-	inv := 1 / det
-	x[0] = (b[0]*c0 + b[1]*(J[0][2]*J[2][1]-J[0][1]*J[2][2]) + b[2]*(J[0][1]*J[1][2]-J[0][2]*J[1][1])) * inv
-	x[1] = (b[0]*c1 + b[1]*(J[0][0]*J[2][2]-J[0][2]*J[2][0]) + b[2]*(J[0][2]*J[1][0]-J[0][0]*J[1][2])) * inv
-	x[2] = (b[0]*c2 + b[1]*(J[0][1]*J[2][0]-J[0][0]*J[2][1]) + b[2]*(J[0][0]*J[1][1]-J[0][1]*J[1][0])) * inv
-	return x, true
+	return math.Abs(det) > 1e-14*scale
 }
 
 // solve3T solves Jᵀ x = b.

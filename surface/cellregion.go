@@ -7,14 +7,35 @@ import (
 )
 
 // regions holds the convex regions of one cell against which facets are
-// clipped: region k is the intersection of planes[start[k]:start[k+1]].
-// It is a reusable scratch buffer of one worker.
+// clipped, for the facet at hand: region k is the intersection of the
+// planes of the cell's region sel[k]. It is the reusable scratch state of
+// one worker, with a direct-mapped cache of the regions of recently cut
+// cells (neighbouring facets cross the same cells; the regions depend only
+// on the cell, so the cache does not change any result).
 type regions struct {
+	cache []cellRegions
+	cur   *cellRegions
+	sel   []int
+	scale float64 // largest extent of the cell's bounding box
+}
+
+// regionCacheSize is the number of cells whose regions a worker keeps (a
+// power of two).
+const regionCacheSize = 512
+
+// cellRegions are the regions of one cell: region k is the intersection of
+// planes[start[k]:start[k+1]]; simp[k] holds the vertices of region k when
+// the cell is split into simplices (own is false).
+type cellRegions struct {
+	ref    field.CellRef
+	filled bool
+	own    bool
+	scale  float64
+	nodes  [][3]float64
 	planes []halfSpace
 	start  []int
 	simp   [][4][3]float64
-	nodes  [][3]float64
-	scale  float64 // largest extent of the cell's bounding box
+	all    [][4][3]float64 // scratch: all simplices of the cell
 }
 
 // planarTol is the relative tolerance (to the cell size) within which a
@@ -22,48 +43,97 @@ type regions struct {
 // against its own faces instead of its simplices.
 const planarTol = 1e-12
 
-// build fills r with the regions of cell c of z in dimension dim: the cell
-// itself when it is a simplex or a convex cell with planar faces, else its
-// conforming simplices (field.Zone.Simplices).
-func (r *regions) build(z *field.Zone, c int, dim int) {
-	r.planes, r.start = r.planes[:0], r.start[:0]
-	r.nodes = r.nodes[:0]
+// offPlane is the distance, relative to the cell size, by which a cell or
+// simplex must lie on one side of a facet's plane to be skipped without
+// clipping. Clipping keeps points within 1e-10 of the cell size of a face
+// plane; a region this far from the plane could yield a piece only if its
+// corners were sharper than about 1e-4 rad.
+const offPlane = 1e-6
+
+// build selects the regions of cell c of z in dimension dim that the plane
+// (line in 2D) n·x = n·o of a facet through o with unit normal n crosses:
+// the cell itself when it is a simplex or a convex cell with planar faces,
+// else those of its conforming simplices (field.Zone.Simplices) that are
+// not degenerate and reach the plane. It returns false, with no regions,
+// when all the cell's nodes lie on one side of the plane: the facet then
+// has no piece in the cell.
+func (r *regions) build(z *field.Zone, ref field.CellRef, dim int, n, o [3]float64) bool {
+	if r.cache == nil {
+		r.cache = make([]cellRegions, regionCacheSize)
+	}
+	h := (uint32(ref.Cell)*2654435761 ^ uint32(ref.Zone)*40503) >> 7
+	cr := &r.cache[h&(regionCacheSize-1)]
+	if !cr.filled || cr.ref != ref {
+		cr.fill(z, ref, dim)
+	}
+	r.cur, r.scale, r.sel = cr, cr.scale, r.sel[:0]
+	margin := offPlane * cr.scale
+	if oneSide(cr.nodes, n, o, margin) {
+		return false
+	}
+	for k := 0; k+1 < len(cr.start); k++ {
+		if cr.own || !oneSide(cr.simp[k][:dim+1], n, o, margin) {
+			r.sel = append(r.sel, k)
+		}
+	}
+	return true
+}
+
+// fill computes the regions of cell ref of z.
+func (cr *cellRegions) fill(z *field.Zone, ref field.CellRef, dim int) {
+	cr.ref, cr.filled = ref, true
+	cr.planes, cr.start, cr.simp = cr.planes[:0], cr.start[:0], cr.simp[:0]
+	cr.nodes = cr.nodes[:0]
+	c := int(ref.Cell)
 	lo := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}
 	hi := [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
 	var cen [3]float64
 	for _, p := range z.CellNodes(c) {
 		x := z.Point(p)
-		r.nodes = append(r.nodes, x)
+		cr.nodes = append(cr.nodes, x)
 		cen = add(cen, x)
 		for k := 0; k < 3; k++ {
-			lo[k], hi[k] = math.Min(lo[k], x[k]), math.Max(hi[k], x[k])
+			lo[k], hi[k] = min(lo[k], x[k]), max(hi[k], x[k])
 		}
 	}
-	cen = scale(cen, 1/float64(len(r.nodes)))
-	r.scale = math.Max(hi[0]-lo[0], math.Max(hi[1]-lo[1], hi[2]-lo[2]))
-	if r.ownFaces(z.Types[c], cen, dim) {
+	cr.scale = max(hi[0]-lo[0], hi[1]-lo[1], hi[2]-lo[2])
+	cen = scale(cen, 1/float64(len(cr.nodes)))
+	if cr.own = cr.ownFaces(z.Types[c], cen, dim); cr.own {
 		return
 	}
-	r.planes, r.start = r.planes[:0], r.start[:0]
-	r.simp = z.Simplices(c, r.simp[:0])
-	for _, s := range r.simp {
-		if degenerate(s, dim, r.scale) {
+	cr.planes, cr.start = cr.planes[:0], cr.start[:0]
+	cr.all = z.Simplices(c, cr.all[:0])
+	for _, s := range cr.all {
+		if degenerate(s, dim, cr.scale) {
 			continue // a flat simplex bounds nothing and owns no area
 		}
-		r.start = append(r.start, len(r.planes))
+		cr.start = append(cr.start, len(cr.planes))
+		cr.simp = append(cr.simp, s)
 		if dim == 2 {
-			r.addEdges(s[:3], [][]int{{0, 1}, {1, 2}, {2, 0}})
+			cr.addEdges(s[:3], [][]int{{0, 1}, {1, 2}, {2, 0}})
 		} else {
-			r.addFaces(s[:], [][]int{{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}})
+			cr.addFaces(s[:], [][]int{{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}})
 		}
 	}
-	r.start = append(r.start, len(r.planes))
+	cr.start = append(cr.start, len(cr.planes))
+}
+
+// oneSide reports whether all points x lie farther than margin on the same
+// side of the plane through o with unit normal n.
+func oneSide(x [][3]float64, n, o [3]float64, margin float64) bool {
+	above, below := true, true
+	for _, p := range x {
+		d := dot(n, sub(p, o))
+		above = above && d > margin
+		below = below && d < -margin
+	}
+	return above || below
 }
 
 // ownFaces tries to make the cell one region bounded by its own faces:
 // it succeeds when every face is planar and every node lies on the inner
 // side of every face (within planarTol of the cell size).
-func (r *regions) ownFaces(t field.CellType, cen [3]float64, dim int) bool {
+func (r *cellRegions) ownFaces(t field.CellType, cen [3]float64, dim int) bool {
 	faces := t.Faces()
 	if faces == nil || t.Dim() != dim {
 		return false
@@ -112,7 +182,7 @@ func (r *regions) ownFaces(t field.CellType, cen [3]float64, dim int) bool {
 }
 
 // addFaces appends the outward planes of the triangles of simplex s.
-func (r *regions) addFaces(s [][3]float64, faces [][]int) {
+func (r *cellRegions) addFaces(s [][3]float64, faces [][]int) {
 	cen := scale(add(add(s[0], s[1]), add(s[2], s[3])), 0.25)
 	for _, f := range faces {
 		a := s[f[0]]
@@ -126,7 +196,7 @@ func (r *regions) addFaces(s [][3]float64, faces [][]int) {
 }
 
 // addEdges appends the outward in-plane lines of the edges of triangle s.
-func (r *regions) addEdges(s [][3]float64, edges [][]int) {
+func (r *cellRegions) addEdges(s [][3]float64, edges [][]int) {
 	cen := scale(add(add(s[0], s[1]), s[2]), 1.0/3)
 	for _, e := range edges {
 		a, b := s[e[0]], s[e[1]]
@@ -139,11 +209,14 @@ func (r *regions) addEdges(s [][3]float64, edges [][]int) {
 	}
 }
 
-// len returns the number of regions.
-func (r *regions) len() int { return len(r.start) - 1 }
+// len returns the number of selected regions.
+func (r *regions) len() int { return len(r.sel) }
 
-// region returns the planes of region k.
-func (r *regions) region(k int) []halfSpace { return r.planes[r.start[k]:r.start[k+1]] }
+// region returns the planes of selected region k.
+func (r *regions) region(k int) []halfSpace {
+	j := r.sel[k]
+	return r.cur.planes[r.cur.start[j]:r.cur.start[j+1]]
+}
 
 // degenerate reports whether simplex s (a triangle in 2D) has no volume
 // (area) relative to the cell size.

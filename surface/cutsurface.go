@@ -87,6 +87,7 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 	}
 	workers = max(1, min(workers, nChunks))
 	var next atomic.Int64
+	var sizes outputSizes
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
@@ -99,8 +100,9 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 					return
 				}
 				r := &chunks[ci]
-				r.pieces = make([]Piece, 0, 4*chunkFacets)
-				r.points = make([]QuadPoint, 0, 40*chunkFacets)
+				np, nq := sizes.guess()
+				r.pieces = make([]Piece, 0, np)
+				r.points = make([]QuadPoint, 0, nq)
 				for i := ci * chunkFacets; i < min(nf, (ci+1)*chunkFacets); i++ {
 					// Every chunk runs to its first error, so the error
 					// reported (the first in facet order) is deterministic.
@@ -108,6 +110,7 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 						break
 					}
 				}
+				sizes.record(len(r.pieces), len(r.points))
 			}
 		}()
 	}
@@ -123,18 +126,59 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 	if err := checkCover(spec, dim, area, cov); err != nil {
 		return nil, err
 	}
-	cut.Pieces = make([]Piece, 0, np)
-	cut.Points = make([]QuadPoint, 0, nq)
-	for i := range chunks {
-		off := int32(len(cut.Points))
-		for _, p := range chunks[i].pieces {
-			p.First += off
-			cut.Pieces = append(cut.Pieces, p)
-		}
-		cut.Points = append(cut.Points, chunks[i].points...)
-		chunks[i] = chunkResult{}
-	}
+	cut.Pieces = make([]Piece, np)
+	cut.Points = make([]QuadPoint, nq)
+	concat(cut, chunks, workers)
 	return cut, nil
+}
+
+// concat copies the chunks' pieces and points, in chunk order, into the
+// preallocated cut.Pieces and cut.Points, shifting each piece's First by
+// its chunk's offset. The copy, a few hundred megabytes for a large cut,
+// is split by chunk over the workers.
+func concat(cut *Cut, chunks []chunkResult, workers int) {
+	offP, offQ := make([]int, len(chunks)+1), make([]int, len(chunks)+1)
+	for i := range chunks {
+		offP[i+1] = offP[i] + len(chunks[i].pieces)
+		offQ[i+1] = offQ[i] + len(chunks[i].points)
+	}
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := w; i < len(chunks); i += workers {
+				off := int32(offQ[i])
+				dst := cut.Pieces[offP[i]:offP[i+1]]
+				for k, p := range chunks[i].pieces {
+					p.First += off
+					dst[k] = p
+				}
+				copy(cut.Points[offQ[i]:offQ[i+1]], chunks[i].points)
+				chunks[i] = chunkResult{}
+			}
+		}()
+	}
+	wg.Wait()
+}
+
+// outputSizes tracks the largest piece and point counts of the chunks
+// done so far, to size the buffers of the next ones (which then rarely
+// grow). Capacities do not affect the result.
+type outputSizes struct{ pieces, points atomic.Int64 }
+
+// guess returns capacities for a chunk's pieces and points.
+func (s *outputSizes) guess() (pieces, points int) {
+	p, q := int(s.pieces.Load()), int(s.points.Load())
+	return max(4*chunkFacets, p+p/8), max(40*chunkFacets, q+q/8)
+}
+
+// record notes the counts of a finished chunk.
+func (s *outputSizes) record(pieces, points int) {
+	for old := s.pieces.Load(); int64(pieces) > old && !s.pieces.CompareAndSwap(old, int64(pieces)); old = s.pieces.Load() {
+	}
+	for old := s.points.Load(); int64(points) > old && !s.points.CompareAndSwap(old, int64(points)); old = s.points.Load() {
+	}
 }
 
 // chunkResult is the output of one chunk of facets; First of each piece
@@ -142,7 +186,20 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 type chunkResult struct {
 	pieces []Piece
 	points []QuadPoint
+	verts  [][3]float64 // backing store of the pieces' vertices
 	err    error
+}
+
+// keep returns a copy of poly carved from the chunk's vertex store, so that
+// pieces do not allocate one by one. Earlier copies stay valid when the
+// store grows (a new block is started).
+func (r *chunkResult) keep(poly [][3]float64) [][3]float64 {
+	if len(r.verts)+len(poly) > cap(r.verts) {
+		r.verts = make([][3]float64, 0, max(4096, len(poly)))
+	}
+	n := len(r.verts)
+	r.verts = append(r.verts, poly...)
+	return r.verts[n : n+len(poly) : n+len(poly)]
 }
 
 // facetCover is the coverage account of one facet: its area, the area of

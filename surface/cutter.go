@@ -3,25 +3,29 @@ package surface
 import (
 	"fmt"
 	"math"
-	"sort"
+	"slices"
 
 	"farforce/field"
 )
 
 // cutter is the scratch state of one CutSurface worker.
 type cutter struct {
-	l     *field.Locator
-	f     *Facets
-	spec  string
-	dim   int
-	reg   regions
-	cells []field.CellRef
-	a, b  [][3]float64 // clip buffers
-	polys [][3]float64 // the pieces of the current cell, back to back
-	ends  []int        // polys[ends[k-1]:ends[k]] is piece k
-	areas []float64
-	hull  []int
-	uv    [][2]float64
+	l        *field.Locator
+	f        *Facets
+	spec     string
+	dim      int
+	reg      regions
+	cells    []field.CellRef
+	a, b     [][3]float64 // clip buffers
+	polys    [][3]float64 // the pieces of the current cell, back to back
+	ends     []int        // polys[ends[k-1]:ends[k]] is piece k
+	areas    []float64
+	hull     []int
+	idx      []int
+	uv       [][2]float64
+	hullPoly [][3]float64
+	cm       field.CellMap // the inverse map of the cell being emitted
+	cmOK     bool
 }
 
 func newCutter(l *field.Locator, f *Facets, spec string) *cutter {
@@ -43,10 +47,10 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 	lo, hi := v[0], v[0]
 	for _, p := range v[1:nv] {
 		for k := 0; k < 3; k++ {
-			lo[k], hi[k] = math.Min(lo[k], p[k]), math.Max(hi[k], p[k])
+			lo[k], hi[k] = min(lo[k], p[k]), max(hi[k], p[k])
 		}
 	}
-	pad := 1e-9 * math.Max(hi[0]-lo[0], math.Max(hi[1]-lo[1], hi[2]-lo[2]))
+	pad := 1e-9 * max(hi[0]-lo[0], hi[1]-lo[1], hi[2]-lo[2])
 	for k := 0; k < 3; k++ {
 		lo[k], hi[k] = lo[k]-pad, hi[k]+pad
 	}
@@ -55,7 +59,9 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 	var mom [3]kahan
 	zones := c.l.Field().Zones
 	for _, ref := range c.cells {
-		c.reg.build(zones[ref.Zone], int(ref.Cell), c.dim)
+		if !c.reg.build(zones[ref.Zone], ref, c.dim, n, v[0]) {
+			continue
+		}
 		tol := 1e-10 * c.reg.scale
 		c.polys, c.ends, c.areas = c.polys[:0], c.ends[:0], c.areas[:0]
 		for k := 0; k < c.reg.len(); k++ {
@@ -67,6 +73,7 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 		if len(c.ends) > 1 {
 			c.merge(n)
 		}
+		c.cmOK = c.l.MapCell(ref, &c.cm)
 		start := 0
 		for k, end := range c.ends {
 			poly, a := c.polys[start:end], c.areas[k]
@@ -165,11 +172,12 @@ func (c *cutter) merge(n [3]float64) {
 		q := sub(p, o)
 		c.uv = append(c.uv, [2]float64{dot(q, e1), dot(q, e2)})
 	}
-	c.hull = convexHull(c.uv, c.hull)
-	hullPoly := make([][3]float64, len(c.hull))
-	for k, j := range c.hull {
-		hullPoly[k] = c.polys[j]
+	c.hull, c.idx = convexHull(c.uv, c.hull, c.idx)
+	hullPoly := c.hullPoly[:0]
+	for _, j := range c.hull {
+		hullPoly = append(hullPoly, c.polys[j])
 	}
+	c.hullPoly = hullPoly
 	a := polygonArea(hullPoly, n)
 	if len(hullPoly) >= 3 && math.Abs(a-total) <= 1e-10*total {
 		c.polys = append(c.polys[:0], hullPoly...)
@@ -180,14 +188,21 @@ func (c *cutter) merge(n [3]float64) {
 
 // convexHull returns in dst the indices of the convex hull of pts,
 // counter-clockwise, without collinear points (Andrew's monotone chain).
-func convexHull(pts [][2]float64, dst []int) []int {
-	idx := make([]int, len(pts))
-	for i := range idx {
-		idx[i] = i
+// idx is scratch space, returned for reuse.
+func convexHull(pts [][2]float64, dst, idx []int) ([]int, []int) {
+	idx = idx[:0]
+	for i := range pts {
+		idx = append(idx, i)
 	}
-	sort.SliceStable(idx, func(a, b int) bool {
-		p, q := pts[idx[a]], pts[idx[b]]
-		return p[0] < q[0] || p[0] == q[0] && p[1] < q[1]
+	slices.SortStableFunc(idx, func(a, b int) int {
+		p, q := pts[a], pts[b]
+		switch {
+		case p[0] < q[0] || p[0] == q[0] && p[1] < q[1]:
+			return -1
+		case q[0] < p[0] || q[0] == p[0] && q[1] < p[1]:
+			return 1
+		}
+		return 0
 	})
 	turn := func(o, a, b [2]float64) float64 {
 		return (a[0]-o[0])*(b[1]-o[1]) - (a[1]-o[1])*(b[0]-o[0])
@@ -206,13 +221,13 @@ func convexHull(pts [][2]float64, dst []int) []int {
 			idx[l], idx[r] = idx[r], idx[l]
 		}
 	}
-	return dst
+	return dst, idx
 }
 
 // emit appends the piece poly of facet i in cell ref and its quadrature
 // points to r.
 func (c *cutter) emit(i int, ref field.CellRef, poly [][3]float64, n [3]float64, a float64, r *chunkResult) error {
-	p := Piece{Verts: append([][3]float64(nil), poly...), N: n, Area: a, Cell: ref, First: int32(len(r.points))}
+	p := Piece{Verts: r.keep(poly), N: n, Area: a, Cell: ref, First: int32(len(r.points))}
 	if c.dim == 2 {
 		d := sub(poly[1], poly[0])
 		for _, q := range segRule {
@@ -244,7 +259,11 @@ func (c *cutter) emit(i int, ref field.CellRef, poly [][3]float64, n [3]float64,
 // that (rounding at the face of a warped cell), wherever the locator finds
 // it.
 func (c *cutter) point(i int, ref field.CellRef, x [3]float64, w float64, n [3]float64, r *chunkResult) error {
-	at, ok := c.l.InCell(ref, x)
+	var at field.Location
+	ok := false
+	if c.cmOK {
+		at, ok = c.cm.Local(x)
+	}
 	if !ok {
 		at, ok = c.l.Locate(x)
 	}

@@ -13,17 +13,7 @@ import (
 // Points on the bounding box stay, so the domain keeps its shape. With amp
 // below a quarter of the mesh spacing, cells stay valid (positive Jacobian).
 func Perturb(z *field.Zone, amp float64, seed uint64) {
-	lo := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}
-	hi := [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
-	for i := 0; i < len(z.Points); i += 3 {
-		for k := 0; k < 3; k++ {
-			lo[k], hi[k] = math.Min(lo[k], z.Points[i+k]), math.Max(hi[k], z.Points[i+k])
-		}
-	}
-	dims := 3
-	if lo[2] == hi[2] {
-		dims = 2
-	}
+	lo, hi, dims := zoneBounds(z)
 	rng := rand.New(rand.NewPCG(seed, 0x9e3779b97f4a7c15))
 	for i := 0; i < len(z.Points); i += 3 {
 		onBoundary := false
@@ -106,17 +96,7 @@ func BoxPyramid(lo, hi [3]float64, n [3]int) *field.Zone {
 // The result is a smoothly curved mesh, as body-fitted meshes are, on the
 // same domain; amp below about a tenth of the box keeps cells valid.
 func Warp(z *field.Zone, amp float64) {
-	lo := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}
-	hi := [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
-	for i := 0; i < len(z.Points); i += 3 {
-		for k := 0; k < 3; k++ {
-			lo[k], hi[k] = math.Min(lo[k], z.Points[i+k]), math.Max(hi[k], z.Points[i+k])
-		}
-	}
-	dims := 3
-	if lo[2] == hi[2] {
-		dims = 2
-	}
+	lo, hi, dims := zoneBounds(z)
 	sign := [3]float64{1, -1, 1}
 	for i := 0; i < len(z.Points); i += 3 {
 		s := 1.0
@@ -127,4 +107,15 @@ func Warp(z *field.Zone, amp float64) {
 			z.Points[i+k] += sign[k] * amp * (hi[k] - lo[k]) * s
 		}
 	}
+}
+
+// zoneBounds returns the bounding box of z's points and the number of
+// axes it spans: 2 when every point has the same z coordinate, else 3.
+func zoneBounds(z *field.Zone) (lo, hi [3]float64, dims int) {
+	lo, hi = (&field.Field{Zones: []*field.Zone{z}}).Bounds()
+	dims = 3
+	if lo[2] == hi[2] {
+		dims = 2
+	}
+	return lo, hi, dims
 }

@@ -22,11 +22,7 @@ type SpherePotential struct {
 
 // State returns the exact state at x.
 func (f SpherePotential) State(x [3]float64) field.FlowState {
-	r2 := dot(x, x)
-	r := math.Sqrt(r2)
-	r3 := r2 * r
-	r5 := r3 * r2
-	r7 := r5 * r2
+	_, r3, r5, r7 := radialPowers(x)
 	s := dot(x, f.U)
 	c := f.A * f.A * f.A / 2
 	var st field.FlowState
@@ -70,11 +66,7 @@ type StokesSphere struct {
 
 // State returns the exact state at x.
 func (f StokesSphere) State(x [3]float64) field.FlowState {
-	r2 := dot(x, x)
-	r := math.Sqrt(r2)
-	r3 := r2 * r
-	r5 := r3 * r2
-	r7 := r5 * r2
+	r, r3, r5, r7 := radialPowers(x)
 	s := dot(x, f.U)
 	a, a3 := f.A, f.A*f.A*f.A
 	var st field.FlowState
@@ -147,4 +139,15 @@ func dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }
 
 func cross(a, b [3]float64) [3]float64 {
 	return [3]float64{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
+}
+
+// radialPowers returns r = |x| and r³, r⁵, r⁷, the powers the sphere
+// flows divide by.
+func radialPowers(x [3]float64) (r, r3, r5, r7 float64) {
+	r2 := dot(x, x)
+	r = math.Sqrt(r2)
+	r3 = r2 * r
+	r5 = r3 * r2
+	r7 = r5 * r2
+	return r, r3, r5, r7
 }

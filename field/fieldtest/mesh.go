@@ -99,12 +99,7 @@ func RectTri(lo, hi [2]float64, n [2]int) *field.Zone {
 // geometric so that cells stay near square.
 func Annulus(cx, cy, r0, r1 float64, nr, nt int) *field.Zone {
 	z := &field.Zone{Name: "annulus"}
-	q := math.Pow(r1/r0, 1/float64(nr))
-	for i := 0; i <= nr; i++ {
-		r := r0 * math.Pow(q, float64(i))
-		if i == nr {
-			r = r1
-		}
+	for _, r := range geometricRadii(r0, r1, nr) {
 		for j := 0; j < nt; j++ {
 			t := 2 * math.Pi * float64(j) / float64(nt)
 			z.Points = append(z.Points, cx+r*math.Cos(t), cy+r*math.Sin(t), 0)
@@ -223,4 +218,20 @@ func orientTet(z *field.Zone, n *[4]int32) {
 	if det < 0 {
 		n[1], n[2] = n[2], n[1]
 	}
+}
+
+// geometricRadii returns the n+1 radii from r0 to r1 in geometric
+// progression, r_i = r0·(r1/r0)^(i/n), with the last one exactly r1;
+// none for n < 0.
+func geometricRadii(r0, r1 float64, n int) []float64 {
+	if n < 0 {
+		return nil
+	}
+	q := math.Pow(r1/r0, 1/float64(n))
+	rs := make([]float64, n+1)
+	for i := range rs {
+		rs[i] = r0 * math.Pow(q, float64(i))
+	}
+	rs[n] = r1
+	return rs
 }

@@ -40,12 +40,7 @@ func WallShell(c [3]float64, a, b float64, n, nr int) *field.Zone {
 	}
 	dirs, quads := cubeSphere(n)
 	z := &field.Zone{Name: "sphere shell"}
-	q := math.Pow(b/a, 1/float64(nr))
-	for i := 0; i <= nr; i++ {
-		r := a * math.Pow(q, float64(i))
-		if i == nr {
-			r = b
-		}
+	for _, r := range geometricRadii(a, b, nr) {
 		for _, d := range dirs {
 			z.Points = append(z.Points, c[0]+r*d[0], c[1]+r*d[1], c[2]+r*d[2])
 		}
