@@ -3,9 +3,6 @@ package integrate
 import (
 	"fmt"
 	"math"
-	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"farforce/field"
 	"farforce/surface"
@@ -117,42 +114,16 @@ func integrate(c *surface.Cut, flow field.FlowEvaluator, opt *Options) (sums, er
 	n := len(c.Points)
 	nChunks := (n + ChunkSize - 1) / ChunkSize
 	partial := make([]sums, nChunks)
-	errs := make([]error, nChunks)
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	workers = max(1, min(workers, nChunks))
-	var next atomic.Int64
-	var failed atomic.Bool
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			var st field.FlowState
-			// Chunks are claimed in increasing order and each claimed
-			// chunk is finished, so the lowest failing chunk is always
-			// found whatever the scheduling.
-			for !failed.Load() {
-				k := int(next.Add(1) - 1)
-				if k >= nChunks {
-					return
-				}
-				lo, hi := k*ChunkSize, min((k+1)*ChunkSize, n)
-				if err := sumChunk(c, flow, opt, lo, hi, &st, &partial[k]); err != nil {
-					errs[k] = err
-					failed.Store(true)
-				}
-			}
-		}()
-	}
-	wg.Wait()
+	err := forChunks(nChunks, opt.Workers, func(k int) error {
+		var st field.FlowState
+		lo, hi := k*ChunkSize, min((k+1)*ChunkSize, n)
+		return sumChunk(c, flow, opt, lo, hi, &st, &partial[k])
+	})
 	var total sums
+	if err != nil {
+		return total, err
+	}
 	for k := range partial {
-		if errs[k] != nil {
-			return total, errs[k]
-		}
 		for i := range total {
 			total[i].merge(partial[k][i])
 		}

@@ -697,12 +697,7 @@ func (w *wall) loadSums(p, t *wallLoad, xc Vec3) NearResult {
 			}
 		})
 	}
-	for k := 0; k < 3; k++ {
-		res.Pressure[k] = fp[k].value()
-		res.Friction[k] = ff[k].value()
-		res.Force[k] = res.Pressure[k] + res.Friction[k]
-		res.Moment[k] = mo[k].value()
-	}
+	res.setForces(&fp, &ff, &mo)
 	res.Area = area.value()
 	res.Facets = len(w.facets)
 	res.Parts = len(w.open)
@@ -769,4 +764,16 @@ func CompareNearFar(far Result, near NearResult) NearFarDifference {
 		d.HasDragPercent = true
 	}
 	return d
+}
+
+// setForces stores in r the compensated sums of the pressure force fp,
+// the friction force ff and the moment mo, with Force = Pressure +
+// Friction.
+func (r *NearResult) setForces(fp, ff, mo *[3]neumaier) {
+	for k := 0; k < 3; k++ {
+		r.Pressure[k] = fp[k].value()
+		r.Friction[k] = ff[k].value()
+		r.Force[k] = r.Pressure[k] + r.Friction[k]
+		r.Moment[k] = mo[k].value()
+	}
 }

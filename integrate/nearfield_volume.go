@@ -94,12 +94,7 @@ func NearFieldVolume(l *field.Locator, flow field.FlowEvaluator, faces []field.B
 			area.add(q.w)
 		}
 	}
-	for k := 0; k < 3; k++ {
-		res.Pressure[k] = fp[k].value()
-		res.Friction[k] = ff[k].value()
-		res.Force[k] = res.Pressure[k] + res.Friction[k]
-		res.Moment[k] = mo[k].value()
-	}
+	res.setForces(&fp, &ff, &mo)
 	res.Area, res.Facets = area.value(), len(faces)
 	res.Dim, res.MomentCenter = dim, xc
 	res.HasWind, res.Axes = hasWind, axes

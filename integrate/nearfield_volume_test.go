@@ -8,7 +8,6 @@ import (
 	"farforce/field"
 	"farforce/field/fieldtest"
 	"farforce/integrate"
-	"farforce/readers"
 	"farforce/surface"
 )
 
@@ -244,21 +243,7 @@ func TestNearFieldVolumeDFG2D1(t *testing.T) {
 		{"dfg2d1_coarse_tri_p2refined_binary.vtk", 128, []check{{5.57953523384, 0.005 * 5.57953523384}, {5.558367, 0.002 * 5.558367}}},
 		{"dfg2d1_coarse_tri_vertices_binary.vtk", 64, []check{{5.57953523384, 0.12}}},
 	} {
-		f, err := readers.ReadFile("../testdata/real/"+c.file, readers.Options{})
-		if err != nil {
-			t.Fatal(err)
-		}
-		loc, err := field.NewLocator(f)
-		if err != nil {
-			t.Fatal(err)
-		}
-		flow, err := field.NewFlowSampler(field.NewSampler(loc), field.FlowMap{
-			Velocity: []string{"velocity"}, Pressure: "pressure",
-			Density: field.Quantity{Value: 1}, Viscosity: field.Quantity{Value: 1e-3},
-		})
-		if err != nil {
-			t.Fatal(err)
-		}
+		f, loc, flow := dfgFlow(t, c.file)
 		faces, err := field.BoundaryFaces(f, func(p [3]float64) bool {
 			return (p[0]-0.2)*(p[0]-0.2)+(p[1]-0.2)*(p[1]-0.2) < 0.06*0.06
 		})

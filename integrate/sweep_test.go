@@ -342,21 +342,7 @@ func TestVerdictSpuriousSourceDrift(t *testing.T) {
 // (TestNearFieldDFG2D1Wall) and the far field up to 0.2 % high, so
 // far − near stays below 0.6 % (≈ 330 counts).
 func TestSweepDFG2D1(t *testing.T) {
-	f, err := readers.ReadFile("../testdata/real/dfg2d1_coarse_tri_p2refined_binary.vtk", readers.Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
-	loc, err := field.NewLocator(f)
-	if err != nil {
-		t.Fatal(err)
-	}
-	flow, err := field.NewFlowSampler(field.NewSampler(loc), field.FlowMap{
-		Velocity: []string{"velocity"}, Pressure: "pressure",
-		Density: field.Quantity{Value: 1}, Viscosity: field.Quantity{Value: 1e-3},
-	})
-	if err != nil {
-		t.Fatal(err)
-	}
+	_, loc, flow := dfgFlow(t, "dfg2d1_coarse_tri_p2refined_binary.vtk")
 	// c = 2F/(ρŪ²D): ρ = 1, Ū = 0.2, D = 0.1 (2D reference length).
 	opt := integrate.Options{Free: integrate.Freestream{V: [3]float64{0.2, 0, 0}, Rho: 1}, RefLength: 0.1, MomentCenter: [3]float64{0.2, 0.2, 0}}
 	base, err := surface.ParseSpec("circle center=0.2,0.2 radius=0.075")

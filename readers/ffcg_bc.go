@@ -24,14 +24,8 @@ func (p *ffcgParser) zoneBC(z *ffcgZone, k keyLine) error {
 		return p.errK(k, "ZoneBC", fmt.Sprintf("%d fields", len(k.f)), errSyntax)
 	}
 	for {
-		k, ok, err := p.stmtLine()
-		if err != nil {
-			return err
-		}
-		if !ok {
-			return p.errEOF("ZoneBC")
-		}
-		if end, err := p.endOf(k, "ZoneBC"); end || err != nil {
+		k, end, err := p.blockStmt("ZoneBC", "ZoneBC")
+		if end || err != nil {
 			return err
 		}
 		if !keyword(k, "BC") {
@@ -72,16 +66,11 @@ func (p *ffcgParser) bc(z *ffcgZone, k keyLine) error {
 		return err
 	}
 	for {
-		k, ok, err := p.stmtLine()
+		k, end, err := p.blockStmt("BC", "BC")
 		if err != nil {
 			return err
 		}
-		if !ok {
-			return p.errEOF("BC")
-		}
-		if end, err := p.endOf(k, "BC"); err != nil {
-			return err
-		} else if end {
+		if end {
 			break
 		}
 		switch {
@@ -220,12 +209,8 @@ func faceType(n int) field.CellType {
 		return field.Vertex
 	case 2:
 		return field.Line
-	case 3:
-		return field.Triangle
-	case 4:
-		return field.Quad
 	}
-	return field.Polygon
+	return polygonType(n)
 }
 
 // structuredRange resolves a structured PointRange: the vertices of the

@@ -101,25 +101,14 @@ func (p *ffcgParser) elements(z *ffcgZone, k keyLine) error {
 	sec := &ffcgSection{k: k, name: decodeName(st.pos[0]), first: r[0], last: r[1]}
 	var conn, offs []int32
 	for {
-		k, ok, err := p.stmtLine()
+		h, end, err := p.dataStmt("Elements")
 		if err != nil {
 			return err
 		}
-		if !ok {
-			return p.errEOF("Elements")
-		}
-		if end, err := p.endOf(k, "Elements"); err != nil {
-			return err
-		} else if end {
+		if end {
 			break
 		}
-		if !keyword(k, "data") {
-			return p.errK(k, "data or end", quote([]byte(k.f[0])), errSyntax)
-		}
-		h, err := p.dataHeader(k)
-		if err != nil {
-			return err
-		}
+		k := h.k
 		switch h.name {
 		case "ElementConnectivity":
 			if conn != nil {

@@ -2,7 +2,6 @@ package readers
 
 import (
 	"bytes"
-	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -16,11 +15,7 @@ import (
 // a test failure.
 func ffcgFuzzRead(t *testing.T, r io.Reader, opt Options) (f *field.Field, info *CaseInfo, err error) {
 	t.Helper()
-	defer func() {
-		if p := recover(); p != nil {
-			t.Fatalf("panic on data (house rule 6): %v", p)
-		}
-	}()
+	defer failOnPanic(t)
 	return ReadFFCG(r, "fuzz.ffcg", opt)
 }
 
@@ -52,18 +47,7 @@ func FuzzReadFFCG(f *testing.F) {
 		f1, i1, err1 := ffcgFuzzRead(t, bytes.NewReader(data), opt1)
 		f2, i2, err2 := ffcgFuzzRead(t, bytes.NewReader(data), opt2)
 		fs, _, errs := ffcgFuzzRead(t, fuzzUnsized{bytes.NewReader(data)}, opt2)
-		for _, err := range []error{err1, err2, errs} {
-			var e *Error
-			if err != nil && !errors.As(err, &e) {
-				t.Fatalf("error is %T, not *Error: %v", err, err)
-			}
-		}
-		if (err1 == nil) != (err2 == nil) || (err1 != nil && err1.Error() != err2.Error()) {
-			t.Fatalf("1 vs 2 workers: errors differ:\n%v\n%v", err1, err2)
-		}
-		if (err1 == nil) != (errs == nil) {
-			t.Fatalf("sized vs streaming: %v\n%v", err1, errs)
-		}
+		fuzzAgreeErrors(t, err1, err2, errs)
 		if err1 != nil {
 			return
 		}

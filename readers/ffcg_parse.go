@@ -162,6 +162,35 @@ func (p *ffcgParser) endOf(k keyLine, kw string) (isEnd bool, err error) {
 	return true, nil
 }
 
+// blockStmt returns the next statement inside a block opened by keyword
+// kw; what names the block in the error for a file that ends inside it.
+// end reports that the statement is the block's end line.
+func (p *ffcgParser) blockStmt(what, kw string) (k keyLine, end bool, err error) {
+	k, ok, err := p.stmtLine()
+	if err != nil {
+		return k, false, err
+	}
+	if !ok {
+		return k, false, p.errEOF(what)
+	}
+	end, err = p.endOf(k, kw)
+	return k, end, err
+}
+
+// dataStmt is blockStmt for a block that holds only data statements: it
+// returns the next statement's data header (h.k is the statement).
+func (p *ffcgParser) dataStmt(kw string) (h dataHdr, end bool, err error) {
+	k, end, err := p.blockStmt(kw, kw)
+	if end || err != nil {
+		return dataHdr{}, end, err
+	}
+	if !keyword(k, "data") {
+		return dataHdr{}, false, p.errK(k, "data or end", quote([]byte(k.f[0])), errSyntax)
+	}
+	h, err = p.dataHeader(k)
+	return h, false, err
+}
+
 // parse reads the whole stream.
 func (p *ffcgParser) parse() (*field.Field, *CaseInfo, error) {
 	if _, err := p.s.rawLine(); err != nil { // the magic line, checked by readFFCGIf
@@ -239,14 +268,8 @@ func (p *ffcgParser) parseBase(k keyLine) error {
 	p.bases++
 	first := p.bases == 1
 	for {
-		k, ok, err := p.stmtLine()
-		if err != nil {
-			return err
-		}
-		if !ok {
-			return p.errEOF("base " + p.base.name)
-		}
-		if end, err := p.endOf(k, "base"); end || err != nil {
+		k, end, err := p.blockStmt("base "+p.base.name, "base")
+		if end || err != nil {
 			return err
 		}
 		switch {
@@ -332,15 +355,12 @@ func (p *ffcgParser) referenceState(k keyLine) (map[string]float64, error) {
 	}
 	ref := map[string]float64{}
 	for {
-		k, ok, err := p.stmtLine()
+		k, end, err := p.blockStmt("ReferenceState", "ReferenceState")
 		if err != nil {
 			return nil, err
 		}
-		if !ok {
-			return nil, p.errEOF("ReferenceState")
-		}
-		if end, err := p.endOf(k, "ReferenceState"); end || err != nil {
-			return ref, err
+		if end {
+			return ref, nil
 		}
 		var name string
 		var v float64

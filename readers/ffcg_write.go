@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"fmt"
 	"io"
+	"maps"
 	"slices"
 	"strconv"
 	"strings"
@@ -152,12 +153,7 @@ func (fw *ffcgWriter) caseInfo(info *CaseInfo) {
 	}
 	if len(info.Reference) > 0 {
 		fw.line(1, "ReferenceState")
-		names := make([]string, 0, len(info.Reference))
-		for n := range info.Reference {
-			names = append(names, n)
-		}
-		slices.Sort(names)
-		for _, n := range names {
+		for _, n := range slices.Sorted(maps.Keys(info.Reference)) {
 			fw.line(2, ffcgName(n)+" = "+string(appendFloat(nil, info.Reference[n])))
 		}
 		fw.line(1, "end ReferenceState")

@@ -87,16 +87,11 @@ func (p *ffcgParser) parseZone(k keyLine) error {
 		return p.errK(k, "Structured or Unstructured", quote([]byte(st.pos[1])), ErrUnknownFormat)
 	}
 	for {
-		k, ok, err := p.stmtLine()
+		k, end, err := p.blockStmt("zone "+z.name, "zone")
 		if err != nil {
 			return err
 		}
-		if !ok {
-			return p.errEOF("zone " + z.name)
-		}
-		if end, err := p.endOf(k, "zone"); err != nil {
-			return err
-		} else if end {
+		if end {
 			return p.finishZone(z, k)
 		}
 		switch {
@@ -135,23 +130,11 @@ func (p *ffcgParser) grid(z *ffcgZone, k keyLine) error {
 	}
 	z.haveGrid = true
 	for {
-		k, ok, err := p.stmtLine()
-		if err != nil {
+		h, end, err := p.dataStmt("GridCoordinates")
+		if end || err != nil {
 			return err
 		}
-		if !ok {
-			return p.errEOF("GridCoordinates")
-		}
-		if end, err := p.endOf(k, "GridCoordinates"); end || err != nil {
-			return err
-		}
-		if !keyword(k, "data") {
-			return p.errK(k, "data or end", quote([]byte(k.f[0])), errSyntax)
-		}
-		h, err := p.dataHeader(k)
-		if err != nil {
-			return err
-		}
+		k := h.k
 		ax := -1
 		for i, n := range coordNames {
 			if h.name == n {
@@ -214,23 +197,11 @@ func (p *ffcgParser) solution(z *ffcgZone, k keyLine) error {
 		total *= int64(full[i])
 	}
 	for {
-		k, ok, err := p.stmtLine()
-		if err != nil {
+		h, end, err := p.dataStmt("FlowSolution")
+		if end || err != nil {
 			return err
 		}
-		if !ok {
-			return p.errEOF("FlowSolution")
-		}
-		if end, err := p.endOf(k, "FlowSolution"); end || err != nil {
-			return err
-		}
-		if !keyword(k, "data") {
-			return p.errK(k, "data or end", quote([]byte(k.f[0])), errSyntax)
-		}
-		h, err := p.dataHeader(k)
-		if err != nil {
-			return err
-		}
+		k := h.k
 		if h.typ.name == "C1" {
 			p.s.warn("line %d: character array %q skipped", k.line, h.name)
 			if err := p.skipData(h); err != nil {

@@ -345,6 +345,10 @@ func fxCheckArray(t *testing.T, z *field.Zone, ga *field.Array, wa *fxArray, par
 			for i := 0; i < n; i++ {
 				s += ga.Data[i*nc+k]
 			}
+			// Each term may differ from VTK's by the float32 tolerance
+			// of fxRelTol (1e-6 relative) and this plain float64 sum adds
+			// one rounding per term, against the script's exact fsum: a
+			// loose bound of 1e-6 per term, scaled by 1 + |sum|.
 			if math.Abs(s-wa.Sum[k]) > 1e-6*(1+math.Abs(wa.Sum[k]))*float64(n) {
 				t.Errorf("array %q comp %d: sum %v, VTK %v", wa.Name, k, s, wa.Sum[k])
 			}

@@ -50,14 +50,40 @@ func fuzzSeedFiles(f *testing.F) []string {
 // learn the stream size and must take its streaming path.
 type fuzzUnsized struct{ io.Reader }
 
+// failOnPanic, deferred by a reading function, turns a panic into a test
+// failure (house rule 6: never panic on data). It must be the deferred
+// function itself, so that its recover stops the panic.
+func failOnPanic(t *testing.T) {
+	if p := recover(); p != nil {
+		t.Helper()
+		t.Fatalf("panic on data (house rule 6): %v", p)
+	}
+}
+
+// fuzzAgreeErrors checks the errors of one input read with 1 worker
+// (err1), 2 workers (err2) and 2 workers streaming (errs): each is nil or
+// an *Error, err1 and err2 are identical (house rule 7), and the sized and
+// streaming reads agree on success.
+func fuzzAgreeErrors(t *testing.T, err1, err2, errs error) {
+	t.Helper()
+	for _, err := range []error{err1, err2, errs} {
+		var e *Error
+		if err != nil && !errors.As(err, &e) {
+			t.Fatalf("error is %T, not *Error: %v", err, err)
+		}
+	}
+	if (err1 == nil) != (err2 == nil) || (err1 != nil && err1.Error() != err2.Error()) {
+		t.Fatalf("1 vs 2 workers: errors differ:\n%v\n%v", err1, err2)
+	}
+	if (err1 == nil) != (errs == nil) {
+		t.Fatalf("sized vs streaming: %v\n%v", err1, errs)
+	}
+}
+
 // fuzzRead reads data with opt, turning a panic into a test failure.
 func fuzzRead(t *testing.T, r io.Reader, opt Options) (f *field.Field, err error) {
 	t.Helper()
-	defer func() {
-		if p := recover(); p != nil {
-			t.Fatalf("panic on data (house rule 6): %v", p)
-		}
-	}()
+	defer failOnPanic(t)
 	return ReadVTK(r, "fuzz.vtk", opt)
 }
 
@@ -84,18 +110,7 @@ func FuzzReadVTK(f *testing.F) {
 		f1, err1 := fuzzRead(t, bytes.NewReader(data), opt1)
 		f2, err2 := fuzzRead(t, bytes.NewReader(data), opt2)
 		fs, errs := fuzzRead(t, fuzzUnsized{bytes.NewReader(data)}, opt2)
-		for _, err := range []error{err1, err2, errs} {
-			var e *Error
-			if err != nil && !errors.As(err, &e) {
-				t.Fatalf("error is %T, not *Error: %v", err, err)
-			}
-		}
-		if (err1 == nil) != (err2 == nil) || (err1 != nil && err1.Error() != err2.Error()) {
-			t.Fatalf("1 vs 2 workers: errors differ:\n%v\n%v", err1, err2)
-		}
-		if (err1 == nil) != (errs == nil) {
-			t.Fatalf("sized vs streaming: %v\n%v", err1, errs)
-		}
+		fuzzAgreeErrors(t, err1, err2, errs)
 		if err1 != nil {
 			return
 		}

@@ -395,15 +395,11 @@ func mfBigASCII(bad int) ([]byte, int) {
 	return b.Bytes(), line
 }
 
-// TestLargeASCIIWorkers reads an 8 MB ASCII file with 1, 2 and 3 workers
-// and through the streaming path: every value equals the formula it was
-// written from, and an error planted deep in the block is reported at the
-// same exact line with the same message whatever the worker count.
-func TestLargeASCIIWorkers(t *testing.T) {
-	if testing.Short() {
-		t.Skip("8 MB input")
-	}
-	data, _ := mfBigASCII(-1)
+// mfReadAllWays reads data with 1, 2 and 3 workers, each through the sized
+// and the streaming path: check vets the first field read, and every
+// other must be reflect.DeepEqual to it (house rule 7).
+func mfReadAllWays(t *testing.T, data []byte, check func(f *field.Field)) {
+	t.Helper()
 	var first *field.Field
 	for _, w := range []int{1, 2, 3} {
 		for _, streaming := range []bool{false, true} {
@@ -413,20 +409,11 @@ func TestLargeASCIIWorkers(t *testing.T) {
 			}
 			f, err := readers.ReadVTK(r, "big.vtk", readers.Options{Workers: w})
 			if err != nil {
-				t.Fatalf("workers %d: %v", w, err)
+				t.Fatalf("workers %d streaming %v: %v", w, streaming, err)
 			}
 			if first == nil {
 				first = f
-				z := f.Zones[0]
-				s, v := z.Array("s"), z.Array("v")
-				if s == nil || v == nil || s.Len() != 300000 || v.Len() != 300000 {
-					t.Fatalf("arrays s, v missing or short")
-				}
-				for i := 0; i < 300000; i++ {
-					if s.Data[i] != float64(i)/2-1000.25 || v.Data[3*i] != float64(i) || v.Data[3*i+1] != -float64(i)/4 || v.Data[3*i+2] != 3 {
-						t.Fatalf("tuple %d: s=%v v=%v", i, s.Data[i], v.Data[3*i:3*i+3])
-					}
-				}
+				check(f)
 				continue
 			}
 			if !reflect.DeepEqual(first, f) {
@@ -434,6 +421,29 @@ func TestLargeASCIIWorkers(t *testing.T) {
 			}
 		}
 	}
+}
+
+// TestLargeASCIIWorkers reads an 8 MB ASCII file with 1, 2 and 3 workers
+// and through the streaming path: every value equals the formula it was
+// written from, and an error planted deep in the block is reported at the
+// same exact line with the same message whatever the worker count.
+func TestLargeASCIIWorkers(t *testing.T) {
+	if testing.Short() {
+		t.Skip("8 MB input")
+	}
+	data, _ := mfBigASCII(-1)
+	mfReadAllWays(t, data, func(f *field.Field) {
+		z := f.Zones[0]
+		s, v := z.Array("s"), z.Array("v")
+		if s == nil || v == nil || s.Len() != 300000 || v.Len() != 300000 {
+			t.Fatalf("arrays s, v missing or short")
+		}
+		for i := 0; i < 300000; i++ {
+			if s.Data[i] != float64(i)/2-1000.25 || v.Data[3*i] != float64(i) || v.Data[3*i+1] != -float64(i)/4 || v.Data[3*i+2] != 3 {
+				t.Fatalf("tuple %d: s=%v v=%v", i, s.Data[i], v.Data[3*i:3*i+3])
+			}
+		}
+	})
 	for _, bad := range []int{5, 150001, 299999} {
 		data, line := mfBigASCII(bad)
 		var msg string
@@ -503,37 +513,19 @@ func mfBigBinary(bad int) ([]byte, int64) {
 // the second half of CONNECTIVITY must be reported at its exact byte.
 func TestLargeBinaryWorkers(t *testing.T) {
 	data, _ := mfBigBinary(-1)
-	var first *field.Field
-	for _, w := range []int{1, 2, 3} {
-		for _, streaming := range []bool{false, true} {
-			var r io.Reader = bytes.NewReader(data)
-			if streaming {
-				r = struct{ io.Reader }{r}
-			}
-			f, err := readers.ReadVTK(r, "big.vtk", readers.Options{Workers: w})
-			if err != nil {
-				t.Fatalf("workers %d: %v", w, err)
-			}
-			if first != nil {
-				if !reflect.DeepEqual(first, f) {
-					t.Errorf("workers %d streaming %v: field differs", w, streaming)
-				}
-				continue
-			}
-			first = f
-			z := f.Zones[0]
-			d := z.Array("d")
-			if z.NumPoints() != 100000 || z.NumCells() != 100000 || d == nil {
-				t.Fatalf("%d points %d cells", z.NumPoints(), z.NumCells())
-			}
-			for i := 0; i < 100000; i++ {
-				if z.Points[3*i] != float64(i) || z.Points[3*i+1] != float64(2*i) || z.Points[3*i+2] != -float64(i) ||
-					z.Types[i] != field.Vertex || z.Conn[i] != int32(i) || d.Data[i] != float64(i)*0.25-7 {
-					t.Fatalf("point/cell/value %d wrong", i)
-				}
+	mfReadAllWays(t, data, func(f *field.Field) {
+		z := f.Zones[0]
+		d := z.Array("d")
+		if z.NumPoints() != 100000 || z.NumCells() != 100000 || d == nil {
+			t.Fatalf("%d points %d cells", z.NumPoints(), z.NumCells())
+		}
+		for i := 0; i < 100000; i++ {
+			if z.Points[3*i] != float64(i) || z.Points[3*i+1] != float64(2*i) || z.Points[3*i+2] != -float64(i) ||
+				z.Types[i] != field.Vertex || z.Conn[i] != int32(i) || d.Data[i] != float64(i)*0.25-7 {
+				t.Fatalf("point/cell/value %d wrong", i)
 			}
 		}
-	}
+	})
 	for _, bad := range []int{3, 70001, 99999} {
 		data, off := mfBigBinary(bad)
 		for _, w := range []int{1, 2, 3} {

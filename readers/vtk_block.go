@@ -21,19 +21,7 @@ type floatSink struct {
 	total int
 }
 
-func (f *floatSink) grow(n int) {
-	if n <= len(f.d) {
-		return
-	}
-	if n > cap(f.d) {
-		c := max(2*cap(f.d), n, 1<<16)
-		c = min(c, f.total)
-		nd := make([]float64, len(f.d), c)
-		copy(nd, f.d)
-		f.d = nd
-	}
-	f.d = f.d[:n]
-}
+func (f *floatSink) grow(n int) { f.d = growTo(f.d, n, f.total) }
 
 func (f *floatSink) putFloats(k int, v []float64) (int, *Error) {
 	copy(f.d[k:], v)
@@ -52,19 +40,7 @@ type intSink struct {
 	total int
 }
 
-func (f *intSink) grow(n int) {
-	if n <= len(f.d) {
-		return
-	}
-	if n > cap(f.d) {
-		c := max(2*cap(f.d), n, 1<<16)
-		c = min(c, f.total)
-		nd := make([]int32, len(f.d), c)
-		copy(nd, f.d)
-		f.d = nd
-	}
-	f.d = f.d[:n]
-}
+func (f *intSink) grow(n int) { f.d = growTo(f.d, n, f.total) }
 
 func (f *intSink) putFloats(k int, v []float64) (int, *Error) {
 	d := f.d[k : k+len(v)]
@@ -82,6 +58,24 @@ func (f *intSink) putBytes(k int, src []byte, t dtype, le bool) (int, *Error) {
 		return i, &Error{Expected: "a 32-bit integer", Found: fmt.Sprint(x), Err: errSyntax}
 	}
 	return 0, nil
+}
+
+// growTo returns d resliced to length n (n >= len(d)) or d unchanged when
+// it is already that long. A new backing array at least doubles the
+// capacity, starts at 64 Ki values and never exceeds total, the count
+// the stream declared and the scanner already checked.
+func growTo[T float64 | int32](d []T, n, total int) []T {
+	if n <= len(d) {
+		return d
+	}
+	if n > cap(d) {
+		c := max(2*cap(d), n, 1<<16)
+		c = min(c, total)
+		nd := make([]T, len(d), c)
+		copy(nd, d)
+		d = nd
+	}
+	return d[:n]
 }
 
 // budget checks that n values of t can still be in the stream and

@@ -58,7 +58,12 @@ func (s *scanner) want(n int) {
 	if n > s.maxBuf || n < 0 {
 		n = s.maxBuf
 	}
-	nb := make([]byte, max(n, 2*len(s.buf)))
+	s.moveUnread(make([]byte, max(n, 2*len(s.buf))))
+}
+
+// moveUnread moves the unread bytes to the start of nb, a new larger
+// buffer or s.buf itself, and makes nb the buffer.
+func (s *scanner) moveUnread(nb []byte) {
 	copy(nb, s.buf[s.pos:s.end])
 	s.base += int64(s.pos)
 	s.end -= s.pos
@@ -101,17 +106,9 @@ func (s *scanner) fill(n int) error {
 		return nil
 	}
 	if n > len(s.buf) {
-		nb := make([]byte, max(n, 2*len(s.buf)))
-		copy(nb, s.buf[s.pos:s.end])
-		s.base += int64(s.pos)
-		s.end -= s.pos
-		s.pos = 0
-		s.buf = nb
+		s.moveUnread(make([]byte, max(n, 2*len(s.buf))))
 	} else if s.pos > 0 {
-		copy(s.buf, s.buf[s.pos:s.end])
-		s.base += int64(s.pos)
-		s.end -= s.pos
-		s.pos = 0
+		s.moveUnread(s.buf)
 	}
 	for s.end-s.pos < n && !s.eof {
 		k, err := s.r.Read(s.buf[s.end:])

@@ -219,38 +219,28 @@ func (v *vtkWriter) flushBuf() {
 // floats writes a block of doubles, nine per line in ASCII, followed by
 // a newline.
 func (v *vtkWriter) floats(d []float64) {
-	for i, x := range d {
-		if v.binary {
-			v.buf = binary.BigEndian.AppendUint64(v.buf, math.Float64bits(x))
-		} else {
-			v.buf = appendFloat(v.buf, x)
-			if i%9 == 8 || i == len(d)-1 {
-				v.buf = append(v.buf, '\n')
-			} else {
-				v.buf = append(v.buf, ' ')
-			}
-		}
-		if len(v.buf) > 1<<16 {
-			v.flushBuf()
-		}
-	}
-	if v.binary {
-		v.buf = append(v.buf, '\n')
-	}
-	v.flushBuf()
+	bin := func(b []byte, x float64) []byte { return binary.BigEndian.AppendUint64(b, math.Float64bits(x)) }
+	writeBlock(v, d, bin, appendFloat)
 }
 
 // ints writes a block of integers of size bytes (4 or 8) each.
 func (v *vtkWriter) ints(d []int64, size int) {
+	bin := func(b []byte, x int64) []byte { return binary.BigEndian.AppendUint32(b, uint32(int32(x))) }
+	if size == 8 {
+		bin = func(b []byte, x int64) []byte { return binary.BigEndian.AppendUint64(b, uint64(x)) }
+	}
+	txt := func(b []byte, x int64) []byte { return strconv.AppendInt(b, x, 10) }
+	writeBlock(v, d, bin, txt)
+}
+
+// writeBlock writes d with bin (binary files) or txt (ASCII, nine values
+// a line), then a newline, flushing the buffer every 64 KiB.
+func writeBlock[T any](v *vtkWriter, d []T, bin, txt func([]byte, T) []byte) {
 	for i, x := range d {
 		if v.binary {
-			if size == 8 {
-				v.buf = binary.BigEndian.AppendUint64(v.buf, uint64(x))
-			} else {
-				v.buf = binary.BigEndian.AppendUint32(v.buf, uint32(int32(x)))
-			}
+			v.buf = bin(v.buf, x)
 		} else {
-			v.buf = strconv.AppendInt(v.buf, x, 10)
+			v.buf = txt(v.buf, x)
 			if i%9 == 8 || i == len(d)-1 {
 				v.buf = append(v.buf, '\n')
 			} else {

@@ -2,8 +2,9 @@ package surface
 
 import (
 	"fmt"
+	"maps"
 	"math"
-	"sort"
+	"slices"
 	"strconv"
 	"strings"
 )
@@ -142,13 +143,9 @@ func ParseSpec(spec string) (Shape, error) {
 	return s, nil
 }
 
+// shapeWords lists the shape keywords in sorted order, for messages.
 func shapeWords() string {
-	w := make([]string, 0, len(shapeKeys))
-	for k := range shapeKeys {
-		w = append(w, k)
-	}
-	sort.Strings(w)
-	return strings.Join(w, ", ")
+	return strings.Join(slices.Sorted(maps.Keys(shapeKeys)), ", ")
 }
 
 func contains(list []string, s string) bool {

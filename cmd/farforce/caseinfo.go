@@ -3,7 +3,9 @@ package main
 import (
 	"fmt"
 	"io"
+	"maps"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -190,12 +192,7 @@ func writeCaseText(w io.Writer, c *caseEcho) {
 		return
 	}
 	fmt.Fprintln(w, "\nCase information of the files (flags override it)")
-	keys := make([]string, 0, len(c.Sources))
-	for k := range c.Sources {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	for _, k := range keys {
+	for _, k := range slices.Sorted(maps.Keys(c.Sources)) {
 		fmt.Fprintf(w, "  %s: %s\n", strings.ReplaceAll(k, "_", " "), c.Sources[k])
 	}
 	for _, p := range c.Patches {

@@ -33,18 +33,7 @@ func TestDemoGolden(t *testing.T) {
 	}
 	out = strings.ReplaceAll(out, dir, demoPlaceholder)
 	golden := filepath.Join("testdata", "golden", "demo.golden")
-	if *update {
-		if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if out != string(want) {
-		t.Errorf("demo output differs from %s:\n--- got\n%s--- want\n%s", golden, out, want)
-	}
+	checkGolden(t, golden, out, "demo output")
 	for _, o := range demoOutputs {
 		if _, err := os.Stat(filepath.Join(dir, o[0])); err != nil {
 			t.Errorf("demo file not written: %v", err)

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/json"
 	"fmt"
 	"math"
 	"os"
@@ -124,14 +123,8 @@ const (
 func TestFFCGStokesNoFlags(t *testing.T) {
 	path := writeStokesFFCG(t, t.TempDir())
 	exactP, exactF := 2*math.Pi*stkMu*stkA*stkU, 4*math.Pi*stkMu*stkA*stkU
-	code, out, errs := runCmd(t, "forces", path, "--surface", "box min=-0.9,-0.9,-0.9 max=0.9,0.9,0.9 facets=600", "--no-convection", "--json")
-	if code != exitOK {
-		t.Fatalf("forces: exit %d: %s", code, errs)
-	}
 	var r ffcgForcesJSON
-	if err := json.Unmarshal([]byte(out), &r); err != nil {
-		t.Fatalf("bad JSON: %v", err)
-	}
+	runJSON(t, &r, "forces", path, "--surface", "box min=-0.9,-0.9,-0.9 max=0.9,0.9,0.9 facets=600", "--no-convection", "--json")
 	s := r.Setup
 	if s.Freestream.Velocity != [3]float64{stkU, 0, 0} || s.Freestream.Density != 1 || s.Freestream.Pressure != stkPInf ||
 		s.RefArea != stkArea || s.RefLength != stkA || strings.Join(s.Mapping.Velocity, ",") != "VelocityX,VelocityY,VelocityZ" {
@@ -160,7 +153,7 @@ func TestFFCGStokesNoFlags(t *testing.T) {
 		t.Errorf("wall: %+v, want the near field of forces %+v", w.Near, n)
 	}
 	// Flags still win over the ReferenceState.
-	code, out, errs = runCmd(t, "wall", path, "--freestream-pressure", "0", "--ref-area", "2", "--json")
+	code, out, errs := runCmd(t, "wall", path, "--freestream-pressure", "0", "--ref-area", "2", "--json")
 	if code != exitOK || !strings.Contains(out, `"freestream_pressure": "from --freestream-pressure"`) || !strings.Contains(out, `"ref_area": 2`) {
 		t.Errorf("flags over the ReferenceState: exit %d %s\n%s", code, errs, out)
 	}
@@ -323,14 +316,8 @@ func TestFFCGCylinderNearFieldNoFlags(t *testing.T) {
 	if err := os.WriteFile(path, []byte(cylinderOGrid(flow, a, 64, 16)), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	code, out, errs := runCmd(t, "forces", path, "--surface", "circle center=0,0 radius=3", "--json")
-	if code != exitOK {
-		t.Fatalf("forces: exit %d: %s", code, errs)
-	}
 	var r ffcgForcesJSON
-	if err := json.Unmarshal([]byte(out), &r); err != nil {
-		t.Fatalf("bad JSON: %v", err)
-	}
+	runJSON(t, &r, "forces", path, "--surface", "circle center=0,0 radius=3", "--json")
 	far := r.Surfaces[0].Force
 	if math.Hypot(far[0], far[1]-lift) > 0.005*lift {
 		t.Errorf("far field (%.6g, %.6g), want (0, %.6g)", far[0], far[1], lift)

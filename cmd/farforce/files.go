@@ -25,6 +25,24 @@ func writeJSON(w io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
+// writeReport prints rep on e.stdout in the format chosen by --json and
+// --csv (at most one of them set): as JSON, through csv with the notice on
+// stderr (so that stdout holds only the table), or through text.
+func writeReport(e *env, rep any, asJSON, asCSV bool, csv func(io.Writer) error, text func(io.Writer)) error {
+	switch {
+	case asJSON:
+		return writeJSON(e.stdout, rep)
+	case asCSV:
+		if err := csv(e.stdout); err != nil {
+			return err
+		}
+		fmt.Fprintln(e.stderr, notice)
+	default:
+		text(e.stdout)
+	}
+	return nil
+}
+
 // writeFileAtomic writes a file through write into a temporary file in the
 // same folder and renames it over path, so readers never see a half-written
 // file. On error the temporary file is removed and path is untouched.

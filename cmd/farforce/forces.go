@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"io"
 
 	"github.com/spf13/pflag"
 
@@ -134,16 +135,9 @@ func (c *forcesImpl) run(e *env, args []string) error {
 	if c.near.active(p) {
 		return c.near.printForcesWithNear(e, p, rep, c.json, c.csv)
 	}
-	switch {
-	case c.json:
-		return writeJSON(e.stdout, rep)
-	case c.csv:
-		writeForcesCSV(e.stdout, rep)
-		fmt.Fprintln(e.stderr, notice)
-	default:
-		writeForcesText(e.stdout, rep)
-	}
-	return nil
+	return writeReport(e, rep, c.json, c.csv,
+		func(w io.Writer) error { writeForcesCSV(w, rep); return nil },
+		func(w io.Writer) { writeForcesText(w, rep) })
 }
 
 // parseShape parses a --surface spec; a file surface is read and loaded

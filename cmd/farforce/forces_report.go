@@ -36,6 +36,16 @@ func units(dim int) (force, moment, area string) {
 	return "N", "N·m", "area (m²)"
 }
 
+// writeSetupOf is writeSetupText with the dynamic pressure and wind axes
+// of res, the first result of a report (nil when there is none).
+func writeSetupOf(w io.Writer, s *setupReport, res *integrate.Result) {
+	if res == nil {
+		writeSetupText(w, s, 0, nil)
+		return
+	}
+	writeSetupText(w, s, res.DynamicPressure, windAxes(res.HasWind, &res.Axes))
+}
+
 // writeSetupText echoes the constants and conventions of a computation.
 func writeSetupText(w io.Writer, s *setupReport, q float64, axes *integrate.Axes) {
 	fmt.Fprintf(w, "Solution: %s\n", strings.Join(s.Files, ", "))
@@ -137,15 +147,11 @@ func vec(v [3]float64) string {
 // writeForcesText prints the setup, then one block per surface, then the
 // notice.
 func writeForcesText(w io.Writer, r *forcesReport) {
-	q := 0.0
-	var axes *integrate.Axes
+	var first *integrate.Result
 	if len(r.Surfaces) > 0 {
-		q = r.Surfaces[0].DynamicPressure
-		if r.Surfaces[0].HasWind {
-			axes = &r.Surfaces[0].Axes
-		}
+		first = &r.Surfaces[0]
 	}
-	writeSetupText(w, &r.Setup, q, axes)
+	writeSetupOf(w, &r.Setup, first)
 	for i := range r.Surfaces {
 		fmt.Fprintln(w)
 		writeSurfaceText(w, i+1, &r.Surfaces[i])
@@ -168,39 +174,9 @@ func writeSurfaceText(w io.Writer, k int, s *integrate.Result) {
 	fmt.Fprintf(w, "  mass closure ∮ρV·n / ∮ρ|V·n| = %.3g (net %.4g %s of %.4g through the surface)\n\n",
 		s.MassImbalance, s.MassFlux, massUnit, s.MassAbs)
 
-	rows := []struct {
-		name string
-		v    [3]float64
-	}{{"momentum flux", s.Terms.Momentum}, {"pressure", s.Terms.Pressure}, {"viscous", s.Terms.Viscous},
-		{"Reynolds stress", s.Terms.Reynolds}, {"total", s.Force}}
-	var all []float64
-	for _, r := range rows {
-		all = append(all, r.v[:]...)
-	}
-	f := fixedFormatter(all...)
-	wind := func(v [3]float64) []string {
-		if !s.HasWind {
-			return nil
-		}
-		a := s.Axes
-		out := []string{f(dot(v, a.Drag)), f(dot(v, a.Lift))}
-		if s.Dim == 3 {
-			out = append(out, f(dot(v, a.Side)))
-		}
-		return out
-	}
-	t := &table{header: []string{"force (" + fu + ")", "x", "y", "z", "drag", "lift", "side"}}
-	if s.Dim == 2 {
-		t.header = []string{"force (" + fu + ")", "x", "y", "drag", "lift"}
-	}
-	for _, r := range rows {
-		cells := []string{r.name, f(r.v[0]), f(r.v[1])}
-		if s.Dim == 3 {
-			cells = append(cells, f(r.v[2]))
-		}
-		t.add(append(cells, wind(r.v)...)...)
-	}
-	t.write(w)
+	largest := writeForceTable(w, fu, s.Dim, windAxes(s.HasWind, &s.Axes), []namedForce{
+		{"momentum flux", s.Terms.Momentum}, {"pressure", s.Terms.Pressure}, {"viscous", s.Terms.Viscous},
+		{"Reynolds stress", s.Terms.Reynolds}, {"total", s.Force}})
 	// Moments are rounded on the scale of the largest force times the size
 	// of the surface, so that a moment that is zero up to rounding shows as
 	// zero.
@@ -208,7 +184,7 @@ func writeSurfaceText(w io.Writer, k int, s *integrate.Result) {
 	if s.Dim == 3 {
 		size = math.Sqrt(s.Area / (4 * math.Pi)) // radius of a sphere of that area
 	}
-	fm := fixedFormatter(append(s.Moment[:], maxAbs(all)*size)...)
+	fm := fixedFormatter(append(s.Moment[:], largest*size)...)
 	if s.Dim == 2 {
 		fmt.Fprintf(w, "  moment M_z about %s: %s %s\n", vec(s.MomentCenter), fm(s.Moment[2]), mu)
 	} else {
@@ -237,6 +213,53 @@ func writeSurfaceText(w io.Writer, k int, s *integrate.Result) {
 	}
 }
 
+// namedForce is one row of a force table.
+type namedForce struct {
+	name string
+	v    [3]float64
+}
+
+// writeForceTable prints rows as a table of mesh components (x, y and, in
+// 3D, z) followed, when axes is not nil, by wind components (drag, lift
+// and, in 3D, side), all rounded by one fixedFormatter; fu is the force
+// unit. It returns the largest magnitude of any mesh component.
+func writeForceTable(w io.Writer, fu string, dim int, axes *integrate.Axes, rows []namedForce) float64 {
+	var all []float64
+	for _, r := range rows {
+		all = append(all, r.v[:]...)
+	}
+	f := fixedFormatter(all...)
+	t := &table{header: []string{"force (" + fu + ")", "x", "y", "z", "drag", "lift", "side"}}
+	if dim == 2 {
+		t.header = []string{"force (" + fu + ")", "x", "y", "drag", "lift"}
+	}
+	for _, r := range rows {
+		cells := []string{r.name, f(r.v[0]), f(r.v[1])}
+		if dim == 3 {
+			cells = append(cells, f(r.v[2]))
+		}
+		if axes != nil {
+			cells = append(cells, f(dot(r.v, axes.Drag)), f(dot(r.v, axes.Lift)))
+			if dim == 3 {
+				cells = append(cells, f(dot(r.v, axes.Side)))
+			}
+		}
+		t.add(cells...)
+	}
+	t.write(w)
+	return maxAbs(all)
+}
+
+// windAxes returns a when hasWind, else nil: the wind axes exist only for
+// a non-zero freestream.
+func windAxes(hasWind bool, a *integrate.Axes) *integrate.Axes {
+	if !hasWind {
+		return nil
+	}
+	return a
+}
+
+// maxAbs returns the largest |x| over v (0 for an empty v).
 func maxAbs(v []float64) float64 {
 	m := 0.0
 	for _, x := range v {

@@ -63,18 +63,7 @@ func TestForcesGolden(t *testing.T) {
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
-	if *update {
-		if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if out != string(want) {
-		t.Errorf("forces output differs from %s:\n--- got\n%s--- want\n%s", golden, out, want)
-	}
+	checkGolden(t, golden, out, "forces output")
 }
 
 // forcesJSON is the part of the forces JSON report the tests read.
@@ -104,15 +93,9 @@ type forcesJSON struct {
 
 func TestForcesPressureOnlyJSON(t *testing.T) {
 	path := pressureBoxFile(t)
-	code, out, errs := runCmd(t, "forces", path, "--surface", "rect min=0.5,0.25 max=1.5,0.75",
-		"--surface", "circle center=1,0.5 radius=0.4 facets=64", "--density", "1", "--speed", "2", "--ref-length", "0.5", "--json")
-	if code != exitOK {
-		t.Fatalf("exit %d: %s", code, errs)
-	}
 	var r forcesJSON
-	if err := json.Unmarshal([]byte(out), &r); err != nil {
-		t.Fatalf("bad JSON: %v\n%s", err, out)
-	}
+	runJSON(t, &r, "forces", path, "--surface", "rect min=0.5,0.25 max=1.5,0.75",
+		"--surface", "circle center=1,0.5 radius=0.4 facets=64", "--density", "1", "--speed", "2", "--ref-length", "0.5", "--json")
 	if r.Schema != forcesSchema || r.Setup.Dimension != 2 || len(r.Surfaces) != 2 || r.Notice != notice {
 		t.Fatalf("schema %q dimension %d surfaces %d notice %q", r.Schema, r.Setup.Dimension, len(r.Surfaces), r.Notice)
 	}
@@ -274,15 +257,9 @@ func TestForces3DPressureOnly(t *testing.T) {
 	fieldtest.SamplePoints(z, "p", 1, func(x [3]float64, d []float64) { d[0] = 1 + 2*x[0] - x[1] + 3*x[2] })
 	path := filepath.Join(t.TempDir(), "rest3d.vtk")
 	writeZoneFile(t, path, z)
-	code, out, errs := runCmd(t, "forces", path, "--surface", "box min=0.5,0.5,0.5 max=1.5,1.25,1.75",
-		"--density", "1", "--freestream-velocity", "1,0,0", "--ref-area", "0.5", "--json")
-	if code != exitOK {
-		t.Fatalf("exit %d: %s", code, errs)
-	}
 	var r forcesJSON
-	if err := json.Unmarshal([]byte(out), &r); err != nil {
-		t.Fatal(err)
-	}
+	runJSON(t, &r, "forces", path, "--surface", "box min=0.5,0.5,0.5 max=1.5,1.25,1.75",
+		"--density", "1", "--freestream-velocity", "1,0,0", "--ref-area", "0.5", "--json")
 	if r.Setup.Dimension != 3 || len(r.Surfaces) != 1 {
 		t.Fatalf("dimension %d, %d surfaces", r.Setup.Dimension, len(r.Surfaces))
 	}

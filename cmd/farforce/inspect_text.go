@@ -3,7 +3,8 @@ package main
 import (
 	"fmt"
 	"io"
-	"sort"
+	"maps"
+	"slices"
 	"strings"
 	"text/tabwriter"
 
@@ -98,13 +99,8 @@ func numPtr(v *float64) string {
 func writeInspectCase(w io.Writer, r *inspectReport) {
 	if len(r.Reference) > 0 {
 		fmt.Fprintln(w, "\nReferenceState (fills the freestream and references no flag sets)")
-		keys := make([]string, 0, len(r.Reference))
-		for k := range r.Reference {
-			keys = append(keys, k)
-		}
-		sort.Strings(keys)
 		t := &table{header: []string{"quantity", "value"}, align: "lr"}
-		for _, k := range keys {
+		for _, k := range slices.Sorted(maps.Keys(r.Reference)) {
 			t.add(k, num(r.Reference[k]))
 		}
 		t.write(w)

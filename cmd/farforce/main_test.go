@@ -21,6 +21,37 @@ func runCmd(t *testing.T, args ...string) (int, string, string) {
 	return code, out.String(), errb.String()
 }
 
+// runJSON runs the program with args, fails the test unless it exits with
+// exitOK, and decodes its standard output (a JSON report) into dst.
+func runJSON(t *testing.T, dst any, args ...string) {
+	t.Helper()
+	code, out, errs := runCmd(t, args...)
+	if code != exitOK {
+		t.Fatalf("%v: exit %d: %s", args, code, errs)
+	}
+	if err := json.Unmarshal([]byte(out), dst); err != nil {
+		t.Fatalf("%v: bad JSON: %v\n%s", args, err, out)
+	}
+}
+
+// checkGolden compares out with the golden file, first rewriting that
+// file with out under -update; what names the output in the failure.
+func checkGolden(t *testing.T, golden, out, what string) {
+	t.Helper()
+	if *update {
+		if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	want, err := os.ReadFile(golden)
+	if err != nil {
+		t.Fatalf("%v (run with -update to create it)", err)
+	}
+	if out != string(want) {
+		t.Errorf("%s differs from %s:\n--- got\n%s--- want\n%s", what, golden, out, want)
+	}
+}
+
 func TestHelpOfEveryCommand(t *testing.T) {
 	for _, c := range commands {
 		for _, args := range [][]string{{c.name, "--help"}, {c.name, "-h"}, {"help", c.name}} {
@@ -101,18 +132,7 @@ func TestInspectGolden(t *testing.T) {
 		t.Fatalf("exit %d: %s", code, errs)
 	}
 	golden := filepath.Join("testdata", "inspect_small.golden")
-	if *update {
-		if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if out != string(want) {
-		t.Errorf("inspect output differs from %s:\n--- got\n%s--- want\n%s", golden, out, want)
-	}
+	checkGolden(t, golden, out, "inspect output")
 }
 
 // TestInspectJSON checks the JSON fields against what testdata/small.vtk

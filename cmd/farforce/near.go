@@ -161,6 +161,12 @@ func (n *nearFlags) fromWall(opt integrate.Options) (*nearReport, error) {
 	if err != nil {
 		return nil, err
 	}
+	return n.fromWallField(f, opt)
+}
+
+// fromWallField integrates f, the field read from the wall file, with the
+// integration options opt.
+func (n *nearFlags) fromWallField(f *field.Field, opt integrate.Options) (*nearReport, error) {
 	if len(f.Zones) != 1 {
 		return nil, inputErr(fmt.Errorf("wall file %s holds %d zones, want one surface", n.wall, len(f.Zones)))
 	}

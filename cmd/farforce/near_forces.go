@@ -33,29 +33,25 @@ func (n *nearFlags) printForcesWithNear(e *env, p *preparedFlow, rep *forcesRepo
 	for _, s := range rep.Surfaces {
 		full.NearFar = append(full.NearFar, integrate.CompareNearFar(s, near.NearResult))
 	}
-	switch {
-	case asJSON:
-		return writeJSON(e.stdout, full)
-	case asCSV:
-		if err := writeForcesNearCSV(e.stdout, full); err != nil {
-			return err
-		}
-		fmt.Fprintln(e.stderr, notice)
-		return nil
-	}
+	return writeReport(e, full, asJSON, asCSV,
+		func(w io.Writer) error { return writeForcesNearCSV(w, full) },
+		func(w io.Writer) { writeForcesNearText(w, full) })
+}
+
+// writeForcesNearText prints the forces report of r, then its near field
+// and far − near per surface, then the notice.
+func writeForcesNearText(w io.Writer, r *forcesNearReport) {
 	var buf bytes.Buffer
-	writeForcesText(&buf, rep)
-	text := strings.TrimSuffix(buf.String(), "\n"+notice+"\n")
-	fmt.Fprint(e.stdout, text)
-	fmt.Fprintln(e.stdout)
-	writeNearText(e.stdout, near)
-	fmt.Fprintln(e.stdout)
-	fmt.Fprintln(e.stdout, "Far field against near field")
-	for i, d := range full.NearFar {
-		writeNearFarText(e.stdout, fmt.Sprintf("surface %d", i+1), d, near, rep.Surfaces[i].HasCoefficients && near.HasCoefficients)
+	writeForcesText(&buf, r.forcesReport)
+	fmt.Fprint(w, strings.TrimSuffix(buf.String(), "\n"+notice+"\n"))
+	fmt.Fprintln(w)
+	writeNearText(w, r.Near)
+	fmt.Fprintln(w)
+	fmt.Fprintln(w, "Far field against near field")
+	for i, d := range r.NearFar {
+		writeNearFarText(w, fmt.Sprintf("surface %d", i+1), d, r.Near, r.Surfaces[i].HasCoefficients && r.Near.HasCoefficients)
 	}
-	fmt.Fprintf(e.stdout, "\n%s\n", notice)
-	return nil
+	fmt.Fprintf(w, "\n%s\n", notice)
 }
 
 // nearDiffHeader names the far − near CSV columns.

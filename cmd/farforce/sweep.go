@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"io"
 	"math"
 	"strconv"
 	"strings"
@@ -138,21 +139,14 @@ func (c *sweepImpl) run(e *env, args []string) error {
 			return err
 		}
 	}
-	switch {
-	case c.json:
-		return writeJSON(e.stdout, rep)
-	case c.csv:
-		if err := writeSweepCSV(e.stdout, rep); err != nil {
-			return err
-		}
-		fmt.Fprintln(e.stderr, notice)
-	default:
-		writeSweepText(e.stdout, rep)
-		if c.plot != "" {
-			fmt.Fprintf(e.stdout, "Plot written to %s\n", c.plot)
-		}
-	}
-	return nil
+	return writeReport(e, rep, c.json, c.csv,
+		func(w io.Writer) error { return writeSweepCSV(w, rep) },
+		func(w io.Writer) {
+			writeSweepText(w, rep)
+			if c.plot != "" {
+				fmt.Fprintf(w, "Plot written to %s\n", c.plot)
+			}
+		})
 }
 
 // maxScales bounds the member count of a sweep.

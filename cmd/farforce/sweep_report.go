@@ -26,15 +26,11 @@ type sweepReport struct {
 // writeSweepText prints the setup, the near field, the members and the
 // verdict.
 func writeSweepText(w io.Writer, r *sweepReport) {
-	q := 0.0
-	var axes *integrate.Axes
+	var first *integrate.Result
 	if len(r.Members) > 0 {
-		q = r.Members[0].DynamicPressure
-		if r.Members[0].HasWind {
-			axes = &r.Members[0].Axes
-		}
+		first = &r.Members[0].Result
 	}
-	writeSetupText(w, &r.Setup, q, axes)
+	writeSetupOf(w, &r.Setup, first)
 	if r.Near != nil {
 		fmt.Fprintln(w)
 		writeNearText(w, r.Near)

@@ -167,7 +167,7 @@ func TestSweepRealCylinder(t *testing.T) {
 	const dir = "../../testdata/real/"
 	file := dir + "dfg2d1_coarse_tri_p2refined_binary.vtk"
 	if _, err := os.Stat(file); err != nil {
-		t.Skipf("real solution not found: %v", err)
+		t.Fatalf("committed fixture missing (testdata/real at the module root): %v", err)
 	}
 	const cdRef, tol = 5.57953523384, 0.016
 	flags := []string{"--density", "1", "--viscosity", "1e-3", "--freestream-velocity", "0.2,0,0", "--ref-length", "0.1", "--wall", dir + "dfg2d1_coarse_wall_ascii.vtk"}

@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"io"
 	"math"
 	"strconv"
 	"strings"
@@ -171,16 +172,9 @@ func (c *wakeImpl) run(e *env, args []string) error {
 			return err
 		}
 	}
-	switch {
-	case c.json:
-		return writeJSON(e.stdout, rep)
-	case c.csv:
-		writeWakeCSV(e.stdout, rep)
-		fmt.Fprintln(e.stderr, notice)
-	default:
-		writeWakeText(e.stdout, rep)
-	}
-	return nil
+	return writeReport(e, rep, c.json, c.csv,
+		func(w io.Writer) error { writeWakeCSV(w, rep); return nil },
+		func(w io.Writer) { writeWakeText(w, rep) })
 }
 
 // parseGrid reads "N1xN2" (or one number for both); "" gives zeros.

@@ -27,15 +27,11 @@ type wakeReport struct {
 
 // writeWakeText prints the setup, one block per plane and the notice.
 func writeWakeText(w io.Writer, r *wakeReport) {
-	q := 0.0
-	var axes *integrate.Axes
+	var first *integrate.Result
 	if len(r.Planes) > 0 {
-		q = r.Planes[0].Momentum.DynamicPressure
-		if r.Planes[0].Momentum.HasWind {
-			axes = &r.Planes[0].Momentum.Axes
-		}
+		first = &r.Planes[0].Momentum
 	}
-	writeSetupText(w, &r.Setup, q, axes)
+	writeSetupOf(w, &r.Setup, first)
 	if r.Gamma > 0 {
 		fmt.Fprintf(w, "  ratio of specific heats γ  %s (compressible analyses on; pressures taken as absolute)\n", num(r.Gamma))
 	}

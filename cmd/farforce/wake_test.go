@@ -2,7 +2,6 @@ package main
 
 import (
 	"encoding/csv"
-	"encoding/json"
 	"math"
 	"os"
 	"path/filepath"
@@ -62,15 +61,9 @@ type wakeJSON struct {
 func TestWakeCommandElliptic(t *testing.T) {
 	path := ellipticFile(t, 10, 41)
 	spec := "x=0.3 ymin=-10 ymax=10 zmin=-10 zmax=10"
-	code, out, errs := runCmd(t, "wake", path, "--plane", spec, "--speed", "50", "--freestream-density", "1.225",
-		"--freestream-pressure", "1e5", "--ref-area", "12", "--span", "10", "--grid", "40x40", "--json")
-	if code != exitOK {
-		t.Fatalf("exit %d: %s", code, errs)
-	}
 	var r wakeJSON
-	if err := json.Unmarshal([]byte(out), &r); err != nil {
-		t.Fatalf("bad JSON: %v\n%s", err, out)
-	}
+	runJSON(t, &r, "wake", path, "--plane", spec, "--speed", "50", "--freestream-density", "1.225",
+		"--freestream-pressure", "1e5", "--ref-area", "12", "--span", "10", "--grid", "40x40", "--json")
 	if r.Schema != wakeSchema || len(r.Planes) != 1 || r.Planes[0].Crossflow == nil {
 		t.Fatalf("schema %q, %d planes", r.Schema, len(r.Planes))
 	}

@@ -177,7 +177,7 @@ func (n *nearFlags) wallOnly(fs *pflag.FlagSet, fl *flowFlags) (*nearReport, set
 	if err != nil {
 		return nil, setup, inputErr(err)
 	}
-	r, err := n.fromWall(opt)
+	r, err := n.fromWallField(f, opt)
 	if err != nil {
 		return nil, setup, err
 	}

@@ -12,10 +12,7 @@ import (
 // writeWallText prints the setup and the near-field block.
 func writeWallText(w io.Writer, r *wallReport) {
 	n := r.Near
-	var axes *integrate.Axes
-	if n.HasWind {
-		axes = &n.Axes
-	}
+	axes := windAxes(n.HasWind, &n.Axes)
 	if n.Source == "wall file" {
 		writeWallSetupText(w, &r.Setup, n.DynamicPressure, axes)
 	} else {
@@ -76,33 +73,8 @@ func writeNearText(w io.Writer, n *nearReport) {
 		fmt.Fprintf(w, "  note: %s\n", note)
 	}
 	fmt.Fprintln(w)
-	rows := []struct {
-		name string
-		v    [3]float64
-	}{{"pressure", n.Pressure}, {"friction", n.Friction}, {"total", n.Force}}
-	var all []float64
-	for _, r := range rows {
-		all = append(all, r.v[:]...)
-	}
-	f := fixedFormatter(all...)
-	t := &table{header: []string{"force (" + fu + ")", "x", "y", "z", "drag", "lift", "side"}}
-	if n.Dim == 2 {
-		t.header = []string{"force (" + fu + ")", "x", "y", "drag", "lift"}
-	}
-	for _, r := range rows {
-		cells := []string{r.name, f(r.v[0]), f(r.v[1])}
-		if n.Dim == 3 {
-			cells = append(cells, f(r.v[2]))
-		}
-		if n.HasWind {
-			cells = append(cells, f(dot(r.v, n.Axes.Drag)), f(dot(r.v, n.Axes.Lift)))
-			if n.Dim == 3 {
-				cells = append(cells, f(dot(r.v, n.Axes.Side)))
-			}
-		}
-		t.add(cells...)
-	}
-	t.write(w)
+	writeForceTable(w, fu, n.Dim, windAxes(n.HasWind, &n.Axes), []namedForce{
+		{"pressure", n.Pressure}, {"friction", n.Friction}, {"total", n.Force}})
 	if n.Dim == 2 {
 		fmt.Fprintf(w, "  moment M_z about %s: %s %s\n", vec(n.MomentCenter), num(n.Moment[2]), mu)
 	} else {

@@ -41,22 +41,17 @@ func Perturb(z *field.Zone, amp float64, seed uint64) {
 func BoxWedge(lo, hi [3]float64, n [3]int) *field.Zone {
 	z := &field.Zone{Name: "box"}
 	boxPoints(z, lo, hi, n)
-	id := pointIndexer(n)
-	for k := 0; k < n[2]; k++ {
-		for j := 0; j < n[1]; j++ {
-			for i := 0; i < n[0]; i++ {
-				a, b, c, d := id(i, j, k), id(i+1, j, k), id(i+1, j+1, k), id(i, j+1, k)
-				A, B, C, D := id(i, j, k+1), id(i+1, j, k+1), id(i+1, j+1, k+1), id(i, j+1, k+1)
-				if (i+j)%2 == 0 {
-					z.AddCell(field.Wedge, a, b, c, A, B, C)
-					z.AddCell(field.Wedge, a, c, d, A, C, D)
-				} else {
-					z.AddCell(field.Wedge, a, b, d, A, B, D)
-					z.AddCell(field.Wedge, b, c, d, B, C, D)
-				}
-			}
+	boxHexes(n, func(i, j int, v [8]int32) {
+		a, b, c, d := v[0], v[1], v[2], v[3]
+		A, B, C, D := v[4], v[5], v[6], v[7]
+		if (i+j)%2 == 0 {
+			z.AddCell(field.Wedge, a, b, c, A, B, C)
+			z.AddCell(field.Wedge, a, c, d, A, C, D)
+		} else {
+			z.AddCell(field.Wedge, a, b, d, A, B, D)
+			z.AddCell(field.Wedge, b, c, d, B, C, D)
 		}
-	}
+	})
 	return z
 }
 
@@ -66,27 +61,20 @@ func BoxWedge(lo, hi [3]float64, n [3]int) *field.Zone {
 func BoxPyramid(lo, hi [3]float64, n [3]int) *field.Zone {
 	z := &field.Zone{Name: "box"}
 	boxPoints(z, lo, hi, n)
-	id := pointIndexer(n)
-	for k := 0; k < n[2]; k++ {
-		for j := 0; j < n[1]; j++ {
-			for i := 0; i < n[0]; i++ {
-				v := [8]int32{id(i, j, k), id(i+1, j, k), id(i+1, j+1, k), id(i, j+1, k),
-					id(i, j, k+1), id(i+1, j, k+1), id(i+1, j+1, k+1), id(i, j+1, k+1)}
-				var c [3]float64
-				for _, p := range v {
-					q := z.Point(p)
-					for m := 0; m < 3; m++ {
-						c[m] += q[m] / 8
-					}
-				}
-				apex := int32(z.NumPoints())
-				z.Points = append(z.Points, c[0], c[1], c[2])
-				for _, f := range field.Hexa.Faces() {
-					z.AddCell(field.Pyramid, v[f[0]], v[f[1]], v[f[2]], v[f[3]], apex)
-				}
+	boxHexes(n, func(_, _ int, v [8]int32) {
+		var c [3]float64
+		for _, p := range v {
+			q := z.Point(p)
+			for m := 0; m < 3; m++ {
+				c[m] += q[m] / 8
 			}
 		}
-	}
+		apex := int32(z.NumPoints())
+		z.Points = append(z.Points, c[0], c[1], c[2])
+		for _, f := range field.Hexa.Faces() {
+			z.AddCell(field.Pyramid, v[f[0]], v[f[1]], v[f[2]], v[f[3]], apex)
+		}
+	})
 	return z
 }
 

@@ -16,16 +16,7 @@ import (
 func BoxHex(lo, hi [3]float64, n [3]int) *field.Zone {
 	z := &field.Zone{Name: "box"}
 	boxPoints(z, lo, hi, n)
-	id := pointIndexer(n)
-	for k := 0; k < n[2]; k++ {
-		for j := 0; j < n[1]; j++ {
-			for i := 0; i < n[0]; i++ {
-				z.AddCell(field.Hexa,
-					id(i, j, k), id(i+1, j, k), id(i+1, j+1, k), id(i, j+1, k),
-					id(i, j, k+1), id(i+1, j, k+1), id(i+1, j+1, k+1), id(i, j+1, k+1))
-			}
-		}
-	}
+	boxHexes(n, func(_, _ int, v [8]int32) { z.AddCell(field.Hexa, v[:]...) })
 	return z
 }
 
@@ -63,12 +54,7 @@ func BoxTet(lo, hi [3]float64, n [3]int) *field.Zone {
 func RectQuad(lo, hi [2]float64, n [2]int) *field.Zone {
 	z := &field.Zone{Name: "rect"}
 	boxPoints(z, [3]float64{lo[0], lo[1], 0}, [3]float64{hi[0], hi[1], 0}, [3]int{n[0], n[1], 0})
-	id := pointIndexer([3]int{n[0], n[1], 0})
-	for j := 0; j < n[1]; j++ {
-		for i := 0; i < n[0]; i++ {
-			z.AddCell(field.Quad, id(i, j, 0), id(i+1, j, 0), id(i+1, j+1, 0), id(i, j+1, 0))
-		}
-	}
+	rectQuads(n, func(_, _ int, v [4]int32) { z.AddCell(field.Quad, v[:]...) })
 	return z
 }
 
@@ -78,19 +64,16 @@ func RectQuad(lo, hi [2]float64, n [2]int) *field.Zone {
 func RectTri(lo, hi [2]float64, n [2]int) *field.Zone {
 	z := &field.Zone{Name: "rect"}
 	boxPoints(z, [3]float64{lo[0], lo[1], 0}, [3]float64{hi[0], hi[1], 0}, [3]int{n[0], n[1], 0})
-	id := pointIndexer([3]int{n[0], n[1], 0})
-	for j := 0; j < n[1]; j++ {
-		for i := 0; i < n[0]; i++ {
-			a, b, c, d := id(i, j, 0), id(i+1, j, 0), id(i+1, j+1, 0), id(i, j+1, 0)
-			if (i+j)%2 == 0 {
-				z.AddCell(field.Triangle, a, b, c)
-				z.AddCell(field.Triangle, a, c, d)
-			} else {
-				z.AddCell(field.Triangle, a, b, d)
-				z.AddCell(field.Triangle, b, c, d)
-			}
+	rectQuads(n, func(i, j int, v [4]int32) {
+		a, b, c, d := v[0], v[1], v[2], v[3]
+		if (i+j)%2 == 0 {
+			z.AddCell(field.Triangle, a, b, c)
+			z.AddCell(field.Triangle, a, c, d)
+		} else {
+			z.AddCell(field.Triangle, a, b, d)
+			z.AddCell(field.Triangle, b, c, d)
 		}
-	}
+	})
 	return z
 }
 
@@ -204,6 +187,33 @@ func lerp(a, b float64, i, n int) float64 {
 
 func pointIndexer(n [3]int) func(i, j, k int) int32 {
 	return func(i, j, k int) int32 { return int32(i + (n[0]+1)*(j+(n[1]+1)*k)) }
+}
+
+// boxHexes calls fn for each of the n[0]×n[1]×n[2] hexahedra of the point
+// grid numbered by pointIndexer(n), x fastest, with the column indices i, j
+// and the corner points v in VTK order.
+func boxHexes(n [3]int, fn func(i, j int, v [8]int32)) {
+	id := pointIndexer(n)
+	for k := 0; k < n[2]; k++ {
+		for j := 0; j < n[1]; j++ {
+			for i := 0; i < n[0]; i++ {
+				fn(i, j, [8]int32{id(i, j, k), id(i+1, j, k), id(i+1, j+1, k), id(i, j+1, k),
+					id(i, j, k+1), id(i+1, j, k+1), id(i+1, j+1, k+1), id(i, j+1, k+1)})
+			}
+		}
+	}
+}
+
+// rectQuads calls fn for each of the n[0]×n[1] squares of the planar point
+// grid numbered by pointIndexer, x fastest, with the indices i, j and the
+// corner points v counter-clockwise from (i, j).
+func rectQuads(n [2]int, fn func(i, j int, v [4]int32)) {
+	id := pointIndexer([3]int{n[0], n[1], 0})
+	for j := 0; j < n[1]; j++ {
+		for i := 0; i < n[0]; i++ {
+			fn(i, j, [4]int32{id(i, j, 0), id(i+1, j, 0), id(i+1, j+1, 0), id(i, j+1, 0)})
+		}
+	}
 }
 
 // orientTet swaps two nodes if needed so that the tetrahedron has positive
