@@ -96,6 +96,30 @@ var (
 	guessVectorComps = map[int]bool{2: true, 3: true}
 )
 
+// FlowArrayCandidates returns every array name GuessFlowMap may pick, in
+// no particular order, without duplicates. A reader given this list (and
+// the names a user set explicitly) can skip every other array unconverted.
+func FlowArrayCandidates() []string {
+	seen := map[string]bool{}
+	var out []string
+	add := func(names ...string) {
+		for _, n := range names {
+			if !seen[n] {
+				seen[n] = true
+				out = append(out, n)
+			}
+		}
+	}
+	add(guessVectorVelocity...)
+	for _, set := range guessScalarVelocity {
+		add(set...)
+	}
+	for _, l := range [][]string{guessPressure, guessDensity, guessDynVisc, guessKinVisc, guessEddyDyn, guessEddyKin, guessReynolds, guessMask} {
+		add(l...)
+	}
+	return out
+}
+
 // GuessFlowMap guesses the flow mapping of f from common array names
 // (velocity U, velocity, Velocity, VelocityX/Y/Z, u/v/w, vel; pressure p,
 // pressure, Pressure; density rho, density, Density; viscosity mu,

@@ -29,6 +29,25 @@ type flowFlags struct {
 	freeV, upV, centerV [3]float64
 }
 
+// arrays returns the names of the arrays a flow computation may use: every
+// name the mapping guess may pick and every array named by a flag (numbers
+// given as constants are left out). Readers skip all other arrays without
+// converting them, which keeps memory to what the command needs.
+func (fl *flowFlags) arrays() []string {
+	names := field.FlowArrayCandidates()
+	for _, s := range []string{fl.pressure, fl.density, fl.viscosity, fl.kinViscosity, fl.eddy, fl.kinEddy, fl.reynolds, fl.mask} {
+		if q, err := parseQuantity("", s); s != "" && err == nil && q.Name != "" {
+			names = append(names, q.Name)
+		}
+	}
+	for _, v := range strings.Split(fl.velocity, ",") {
+		if v = strings.TrimSpace(v); v != "" {
+			names = append(names, v)
+		}
+	}
+	return names
+}
+
 // define registers the flow-mapping and reference flags on fs.
 func (fl *flowFlags) define(fs *pflag.FlagSet) {
 	fs.StringVar(&fl.velocity, "velocity", "", "velocity array: one vector `NAME`, or NAMEX,NAMEY[,NAMEZ] scalars")

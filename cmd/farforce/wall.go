@@ -143,7 +143,7 @@ func wallRun(e *env, fs *pflag.FlagSet, fl *flowFlags, near *nearFlags, files []
 // (loadWithCase) and prepares them for cutting and integrating, with progress.
 func loadPrepared(prog *progress, fs *pflag.FlagSet, fl *flowFlags, files []string) (*preparedFlow, error) {
 	prog.step("reading %d file(s)", len(files))
-	f, cd, err := loadWithCase(files, readers.Options{Workers: fl.workers})
+	f, cd, err := loadWithCase(files, readers.Options{Workers: fl.workers, Arrays: fl.arrays()})
 	if err != nil {
 		return nil, err
 	}
