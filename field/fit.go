@@ -1,6 +1,9 @@
 package field
 
-import "math"
+import (
+	"math"
+	"sync"
+)
 
 // Polynomial least-squares fits used by cell-data reconstruction and nodal
 // gradient recovery. A fit is centred on a point x0 and scaled by a length
@@ -99,20 +102,6 @@ func (p *polyFit) gradient(x [3]float64, dst []float64) {
 	}
 }
 
-// centreGradient stores in dst[3*c+j] the gradient of the fit at its centre
-// x0, where only the linear terms contribute.
-func (p *polyFit) centreGradient(dst []float64) {
-	for c := 0; c < p.comps; c++ {
-		for j := 0; j < 3; j++ {
-			v := 0.0
-			if j < p.dim && p.terms > 1 {
-				v = p.coef[(1+j)*p.comps+c] / p.h[j]
-			}
-			dst[3*c+j] = v
-		}
-	}
-}
-
 // fitStencil fits a polynomial of degree deg to m samples at points pts with
 // values vals (m×comps, interleaved), centred on x0 and scaled by h (per
 // axis, all > 0). With vals nil it returns instead the fit operator: a fit
@@ -123,165 +112,270 @@ func (p *polyFit) centreGradient(dst []float64) {
 // least-squares matrix scaled to unit norm, the smallest |R_ii| of its QR
 // factor is below tol times the largest.
 func fitStencil(dim, deg int, x0, h [3]float64, pts [][3]float64, vals []float64, comps int, tol float64) (polyFit, bool) {
-	n := numTerms(dim, deg)
-	m := len(pts)
 	if vals == nil {
-		comps = m
+		return fitOperator(dim, deg, numTerms(dim, deg), x0, h, pts, tol)
 	}
+	n, m := numTerms(dim, deg), len(pts)
 	fit := polyFit{dim: dim, terms: n, comps: comps, x0: x0, h: h}
 	if m < n {
 		return fit, false
 	}
-	A := make([]float64, m*n)
-	for i, x := range pts {
-		basisRow(dim, fit.scaled(x), A[i*n:(i+1)*n])
+	w := getFitWork(m * n)
+	defer fitPool.Put(w)
+	var colScale, diag, vn [10]float64
+	if !fit.design(pts, w.a, &colScale) {
+		return fit, false
 	}
-	// Equilibrate: unit column norms, so that the rank test measures the
-	// geometry of the stencil and not the scaling of the basis.
-	var colScale [10]float64
-	for j := 0; j < n; j++ {
-		s := 0.0
-		for i := 0; i < m; i++ {
-			s += A[i*n+j] * A[i*n+j]
-		}
-		if s == 0 {
-			return fit, false
-		}
-		colScale[j] = 1 / math.Sqrt(s)
-		for i := 0; i < m; i++ {
-			A[i*n+j] *= colScale[j]
-		}
+	B := make([]float64, m*comps)
+	copy(B, vals)
+	if !householder(w.a, m, n, B, comps, tol, &diag, &vn) {
+		return fit, false
 	}
+	// Back substitution R X = Qᵀ B (first n rows); R_jt = a[t*m+j].
 	fit.coef = make([]float64, n*comps)
-	if vals == nil {
-		if !lsqOperator(A, m, n, fit.coef, tol) {
-			return fit, false
-		}
-	} else {
-		B := make([]float64, m*comps)
-		copy(B, vals)
-		if !lsqSolve(A, m, n, B, comps, fit.coef, tol) {
-			return fit, false
-		}
-	}
-	for j := 0; j < n; j++ {
-		for c := 0; c < comps; c++ {
-			fit.coef[j*comps+c] *= colScale[j]
+	X := fit.coef
+	for c := 0; c < comps; c++ {
+		for j := n - 1; j >= 0; j-- {
+			s := B[j*comps+c]
+			for t := j + 1; t < n; t++ {
+				s -= w.a[t*m+j] * X[t*comps+c]
+			}
+			X[j*comps+c] = s / diag[j]
 		}
 	}
+	fit.unscale(&colScale)
 	return fit, true
 }
 
-// lsqOperator stores in W (n×m) the least-squares operator of A (m×n,
-// row-major, overwritten): W = (AᵀA)⁻¹Aᵀ = R⁻¹R⁻ᵀAᵀ with R from the
-// Householder QR of A (semi-normal equations; A is equilibrated and
-// well-posed, so the squared condition number stays far from rounding
-// trouble). It returns false when A is rank deficient at tolerance tol.
-func lsqOperator(A []float64, m, n int, W []float64, tol float64) bool {
-	At := make([]float64, m*n)
-	copy(At, A)
-	diag, ok := householder(A, m, n, nil, 0, tol)
-	if !ok {
-		return false
+// fitOperator returns the fit operator of fitStencil (vals nil) restricted
+// to the first rows basis terms (1 <= rows <= numTerms(dim, deg)): the
+// least-squares fit is still of degree deg over all its terms, but only the
+// coefficients of the first rows terms are kept (terms = rows), for callers
+// that need no more, such as the value and gradient at the centre (rows =
+// dim+1). ok is as for fitStencil.
+func fitOperator(dim, deg, rows int, x0, h [3]float64, pts [][3]float64, tol float64) (polyFit, bool) {
+	n, m := numTerms(dim, deg), len(pts)
+	fit := polyFit{dim: dim, terms: n, comps: m, x0: x0, h: h}
+	if m < n {
+		return fit, false
 	}
-	var y [10]float64
-	for i := 0; i < m; i++ {
-		a := At[i*n : (i+1)*n]
-		// Rᵀ y = a (forward), then R z = y (backward); z is column i of W.
+	size := m * n
+	if rows == n {
+		size *= 2 // lsqOperator needs A itself too
+	}
+	w := getFitWork(size)
+	defer fitPool.Put(w)
+	a, a0 := w.a[:m*n], w.a[m*n:]
+	var colScale, diag, vn [10]float64
+	if !fit.design(pts, a, &colScale) {
+		return fit, false
+	}
+	if rows == n {
+		copy(a0, a)
+	}
+	if !householder(a, m, n, nil, 0, tol, &diag, &vn) {
+		return fit, false
+	}
+	fit.coef = make([]float64, rows*m)
+	if rows == n {
+		lsqOperator(a, a0, m, n, &diag, fit.coef)
+	} else {
+		lsqOperatorRows(a, m, n, rows, &diag, &vn, fit.coef)
+	}
+	fit.terms = rows
+	fit.unscale(&colScale)
+	return fit, true
+}
+
+// fitWork is scratch space for one fit, pooled so that building many fits
+// allocates only their results. Its contents never outlive a fit.
+type fitWork struct{ a []float64 }
+
+var fitPool = sync.Pool{New: func() any { return new(fitWork) }}
+
+// getFitWork returns pooled scratch with len(w.a) == size.
+func getFitWork(size int) *fitWork {
+	w := fitPool.Get().(*fitWork)
+	if cap(w.a) < size {
+		w.a = make([]float64, size)
+	}
+	w.a = w.a[:size]
+	return w
+}
+
+// design stores in a the least-squares matrix of the fit at pts, column
+// by column (a[j*m+i] is basis term j at sample i, m = len(pts)), each
+// column scaled to unit norm by colScale[j] (equilibration: the rank test
+// then measures the geometry of the stencil and not the scaling of the
+// basis). It returns false when a column is zero.
+func (p *polyFit) design(pts [][3]float64, a []float64, colScale *[10]float64) bool {
+	n, m := p.terms, len(pts)
+	var row [10]float64
+	for i, x := range pts {
+		basisRow(p.dim, p.scaled(x), row[:n])
 		for j := 0; j < n; j++ {
-			s := a[j]
-			for t := 0; t < j; t++ {
-				s -= A[t*n+j] * y[t]
+			a[j*m+i] = row[j]
+		}
+	}
+	for j := 0; j < n; j++ {
+		col := a[j*m : (j+1)*m]
+		s := 0.0 // entries are O(1) after scaling by h: no overflow
+		for _, v := range col {
+			s += v * v
+		}
+		if s == 0 {
+			return false
+		}
+		colScale[j] = 1 / math.Sqrt(s)
+		for i := range col {
+			col[i] *= colScale[j]
+		}
+	}
+	return true
+}
+
+// unscale maps coefficients of the equilibrated basis back to the basis:
+// row t of coef (comps values) times colScale[t].
+func (p *polyFit) unscale(colScale *[10]float64) {
+	for t := 0; t < p.terms; t++ {
+		for c := 0; c < p.comps; c++ {
+			p.coef[t*p.comps+c] *= colScale[t]
+		}
+	}
+}
+
+// lsqOperator stores in W (n×m, row-major) the least-squares operator of
+// the equilibrated matrix a0 (column-major, m×n): W = (AᵀA)⁻¹Aᵀ =
+// R⁻¹R⁻ᵀAᵀ with R from the Householder QR of A, held in a and diag as
+// householder leaves them (semi-normal equations; A is equilibrated and
+// well-posed, so the squared condition number stays far from rounding
+// trouble).
+func lsqOperator(a, a0 []float64, m, n int, diag *[10]float64, W []float64) {
+	var R [10 * 10]float64 // R[j*10+t] = R_jt, t > j, row-major copy
+	for j := 0; j < n; j++ {
+		for t := j + 1; t < n; t++ {
+			R[j*10+t] = a[t*m+j]
+		}
+	}
+	var y, z [10]float64
+	for i := 0; i < m; i++ {
+		// Rᵀ y = a_i (forward), then R z = y (backward); z is column i of W.
+		for j := 0; j < n; j++ {
+			s := a0[j*m+i]
+			col := a[j*m : j*m+j] // R_tj, t < j
+			for t, r := range col {
+				s -= r * y[t]
 			}
 			y[j] = s / diag[j]
 		}
 		for j := n - 1; j >= 0; j-- {
 			s := y[j]
 			for t := j + 1; t < n; t++ {
-				s -= A[j*n+t] * W[t*m+i]
+				s -= R[j*10+t] * z[t]
 			}
-			W[j*m+i] = s / diag[j]
+			z[j] = s / diag[j]
+			W[j*m+i] = z[j]
 		}
 	}
-	return true
 }
 
-// lsqSolve solves the least-squares problem min ||A X - B|| for X (n×k) by
-// Householder QR. A (m×n) and B (m×k) are row-major and overwritten. It
-// returns false when A is rank deficient at tolerance tol (see fitStencil).
-func lsqSolve(A []float64, m, n int, B []float64, k int, X []float64, tol float64) bool {
-	diag, ok := householder(A, m, n, B, k, tol)
-	if !ok {
-		return false
-	}
-	// Back substitution R X = Qᵀ B (first n rows).
-	for c := 0; c < k; c++ {
+// lsqOperatorRows stores in W (rows×m) the first rows rows of the
+// least-squares operator (AᵀA)⁻¹Aᵀ = R⁻¹Q₁ᵀ of the equilibrated matrix
+// whose Householder QR householder left in a, diag and vn (Q₁ the first n
+// columns of Q = H₀H₁…H₍ₙ₋₁₎): row r is (Q [y; 0])ᵀ with Rᵀy = e_r, so
+// that only rows rather than the whole operator are formed.
+func lsqOperatorRows(a []float64, m, n, rows int, diag, vn *[10]float64, W []float64) {
+	for r := 0; r < rows; r++ {
+		var y [10]float64
+		for j := r; j < n; j++ {
+			s := 0.0
+			if j == r {
+				s = 1
+			}
+			col := a[j*m : j*m+j] // R_tj, t < j
+			for t := r; t < j; t++ {
+				s -= col[t] * y[t]
+			}
+			y[j] = s / diag[j]
+		}
+		x := W[r*m : (r+1)*m]
+		copy(x, y[:n])
 		for j := n - 1; j >= 0; j-- {
-			s := B[j*k+c]
-			for t := j + 1; t < n; t++ {
-				s -= A[j*n+t] * X[t*k+c]
+			if vn[j] != 0 {
+				reflect(a[j*m+j:(j+1)*m], vn[j], x[j:])
 			}
-			X[j*k+c] = s / diag[j]
 		}
 	}
-	return true
 }
 
-// reflectColumn applies the Householder reflection I − 2vvᵀ/(vᵀv), with
-// v = A[j:m, j] (A has row stride n) and vnorm2 = vᵀv, to rows j..m−1 of
-// column c of X (row stride k): x −= (2 vᵀx / vᵀv) v.
-func reflectColumn(A []float64, n, j, m int, vnorm2 float64, X []float64, k, c int) {
+// reflect applies the Householder reflection I − 2vvᵀ/(vᵀv), with
+// vnorm2 = vᵀv, to x (len(x) = len(v)): x −= (2 vᵀx / vᵀv) v.
+func reflect(v []float64, vnorm2 float64, x []float64) {
+	x = x[:len(v)]
 	s := 0.0
-	for i := j; i < m; i++ {
-		s += A[i*n+j] * X[i*k+c]
+	for i, vi := range v {
+		s += vi * x[i]
 	}
 	s = 2 * s / vnorm2
-	for i := j; i < m; i++ {
-		X[i*k+c] -= s * A[i*n+j]
+	for i, vi := range v {
+		x[i] -= s * vi
 	}
 }
 
-// householder reduces A (m×n) to R by Householder reflections, applying
-// them to B (m×k) too: on return the strict upper triangle of A's first n
-// rows holds R above its diagonal, and diag holds R_jj. ok is false when
-// the smallest |R_jj| is below tol times the largest.
-func householder(A []float64, m, n int, B []float64, k int, tol float64) (diag []float64, ok bool) {
-	diag = make([]float64, n)
+// reflectStrided is reflect on x[0], x[k], x[2k], ...
+func reflectStrided(v []float64, vnorm2 float64, x []float64, k int) {
+	s := 0.0
+	for i, vi := range v {
+		s += vi * x[i*k]
+	}
+	s = 2 * s / vnorm2
+	for i, vi := range v {
+		x[i*k] -= s * vi
+	}
+}
+
+// householder reduces a (m×n, column-major: a[j*m+i] is entry (i, j)) to R
+// by Householder reflections, applying them to B (m×k, row-major) too: on
+// return R_jt (t > j) is a[t*m+j] and diag holds R_jj. It returns false
+// when the smallest |R_jj| is below tol times the largest. vn[j] = vᵀv of
+// reflection j (0: none), its vector v being a[j*m+j : (j+1)*m].
+func householder(a []float64, m, n int, B []float64, k int, tol float64, diag, vn *[10]float64) bool {
 	for j := 0; j < n; j++ {
+		v := a[j*m+j : (j+1)*m]
 		norm := 0.0 // entries are O(1) after equilibration: no overflow
-		for i := j; i < m; i++ {
-			norm += A[i*n+j] * A[i*n+j]
+		for _, x := range v {
+			norm += x * x
 		}
 		norm = math.Sqrt(norm)
 		if norm == 0 {
-			return nil, false
+			return false
 		}
-		alpha := -math.Copysign(norm, A[j*n+j])
-		// v = x - alpha e1 stored in A[j:,j]; R_jj = alpha.
-		A[j*n+j] -= alpha
+		alpha := -math.Copysign(norm, v[0])
+		// v = x - alpha e1 stored in a[j:,j]; R_jj = alpha.
+		v[0] -= alpha
 		vnorm2 := 0.0
-		for i := j; i < m; i++ {
-			vnorm2 += A[i*n+j] * A[i*n+j]
+		for _, x := range v {
+			vnorm2 += x * x
 		}
-		diag[j] = alpha
+		diag[j], vn[j] = alpha, vnorm2
 		if vnorm2 == 0 {
 			continue
 		}
 		for c := j + 1; c < n; c++ {
-			reflectColumn(A, n, j, m, vnorm2, A, n, c)
+			reflect(v, vnorm2, a[c*m+j:(c+1)*m])
 		}
 		for c := 0; c < k; c++ {
-			reflectColumn(A, n, j, m, vnorm2, B, k, c)
+			reflectStrided(v, vnorm2, B[j*k+c:], k)
 		}
 	}
 	big := 0.0
-	for _, d := range diag {
+	for _, d := range diag[:n] {
 		big = math.Max(big, math.Abs(d))
 	}
-	for _, d := range diag {
+	for _, d := range diag[:n] {
 		if !(math.Abs(d) > tol*big) {
-			return nil, false
+			return false
 		}
 	}
-	return diag, true
+	return true
 }

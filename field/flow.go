@@ -245,12 +245,12 @@ type quantitySource struct {
 	value float64
 }
 
-func (q quantitySource) at(s *Sampler, loc Location) float64 {
+func (q quantitySource) at(s *Sampler, st *site) float64 {
 	if !q.named {
 		return q.value
 	}
 	var v [1]float64
-	s.Value(q.id, loc, v[:])
+	s.valueAt(s.arrays[q.id], st, v[:])
 	return v[0]
 }
 
@@ -351,36 +351,38 @@ func resolveQuantity(s *Sampler, what string, q Quantity, required bool) (quanti
 func (fs *FlowSampler) EvalFlow(at Location, x [3]float64, dst *FlowState) {
 	s := fs.s
 	*dst = FlowState{}
+	var st site // one gather and shape evaluation for every array
+	s.site(at, &st)
 	var val [9]float64
 	var grad [27]float64
 	if len(fs.vel) == 1 {
-		s.Value(fs.vel[0], at, val[:fs.velComps])
-		s.Gradient(fs.vel[0], at, grad[:3*fs.velComps])
+		s.valueAt(s.arrays[fs.vel[0]], &st, val[:fs.velComps])
+		s.gradientAt(GradientRecovered, s.arrays[fs.vel[0]], &st, grad[:3*fs.velComps])
 		for i := 0; i < fs.velComps; i++ {
 			dst.V[i] = val[i]
 			dst.GradV[i] = [3]float64{grad[3*i], grad[3*i+1], grad[3*i+2]}
 		}
 	} else {
 		for i, id := range fs.vel {
-			s.Value(id, at, val[:1])
-			s.Gradient(id, at, grad[:3])
+			s.valueAt(s.arrays[id], &st, val[:1])
+			s.gradientAt(GradientRecovered, s.arrays[id], &st, grad[:3])
 			dst.V[i] = val[0]
 			dst.GradV[i] = [3]float64{grad[0], grad[1], grad[2]}
 		}
 	}
-	s.Value(fs.p, at, val[:1])
+	s.valueAt(s.arrays[fs.p], &st, val[:1])
 	dst.P = val[0]
-	dst.Rho = fs.rho.at(s, at)
-	dst.Mu = fs.mu.at(s, at)
+	dst.Rho = fs.rho.at(s, &st)
+	dst.Mu = fs.mu.at(s, &st)
 	if fs.kinMu {
 		dst.Mu *= dst.Rho
 	}
-	dst.MuT = fs.muT.at(s, at)
+	dst.MuT = fs.muT.at(s, &st)
 	if fs.kinMuT {
 		dst.MuT *= dst.Rho
 	}
 	if fs.rsComps > 0 {
-		s.Value(fs.rs, at, val[:fs.rsComps])
+		s.valueAt(s.arrays[fs.rs], &st, val[:fs.rsComps])
 		dst.HasR = true
 		if fs.rsComps == 9 {
 			for i := 0; i < 3; i++ {

@@ -1,6 +1,9 @@
 package field
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // Cell-data reconstruction. A finite-volume solver stores one value per
 // cell: its average, equal to the value at the volume centroid to second
@@ -65,23 +68,23 @@ func (s *Sampler) cellOp(zi, c int) *stencilOp {
 
 func (s *Sampler) buildCellOp(zi, c int) *stencilOp {
 	l := s.l
+	w := stencilWorkPool.Get().(*stencilWork)
+	defer stencilWorkPool.Put(w)
 	z := l.f.Zones[zi]
 	x0 := s.centroid(zi, c)
 	lo, hi := z.cellBounds(c)
 	h := halfExtents(l.dim, lo, hi)
-	refs := []CellRef{{int32(zi), int32(c)}}
-	var next []CellRef
-	var pts [][3]float64
-	var ids []sampleRef
-	return growOp(l.dim, x0, h, func(int) ([][3]float64, []sampleRef) {
-		next = l.expandRing(refs, next)
+	refs, next := append(w.refs[:0], CellRef{int32(zi), int32(c)}), w.next[:0]
+	defer func() { w.refs, w.next = refs, next }()
+	return growOp(l.dim, numTerms(l.dim, 2), x0, h, func(int) ([][3]float64, []sampleRef) {
+		next = s.expandRing(refs, next, &w.ring)
 		refs, next = next, refs
-		pts, ids = pts[:0], ids[:0]
+		w.pts, w.ids = w.pts[:0], w.ids[:0]
 		for _, r := range refs {
-			pts = append(pts, s.centroid(int(r.Zone), int(r.Cell)))
-			ids = append(ids, sampleRef{r.Zone, r.Cell})
+			w.pts = append(w.pts, s.centroid(int(r.Zone), int(r.Cell)))
+			w.ids = append(w.ids, sampleRef{r.Zone, r.Cell})
 		}
-		return pts, ids
+		return w.pts, w.ids
 	})
 }
 
@@ -103,8 +106,11 @@ type sampleRef struct{ zone, idx int32 }
 // stencilOp is the linear map from the values at a stencil's samples to the
 // coefficients of the least-squares polynomial through them:
 // coef_t = Σ_i W[t][i] v_i, with W stored as the coefficients of a polyFit
-// of m components (the fit of the identity data). It depends only on the
-// geometry, so every array of the same centering shares it.
+// of m components (the fit of the identity data). Cell operators keep every
+// term; node operators only the constant and linear ones, all that the
+// recovered gradient at the node needs (w.terms = dim+1, see fitOperator).
+// It depends only on the geometry, so every array of the same centering
+// shares it.
 type stencilOp struct {
 	w   polyFit
 	ids []sampleRef
@@ -132,6 +138,31 @@ func (op *stencilOp) apply(data [][]float64, comps int) *polyFit {
 	return &f
 }
 
+// centreGradient stores in dst[3*c+j] the gradient at the centre x0 of the
+// fit of the array with per-zone data and comps components over the
+// stencil, where only the linear terms contribute: ∂f_c/∂x_j =
+// (Σ_i W[1+j][i] v_ic) / h_j for j < dim, and 0 otherwise or when the fit
+// has no linear terms.
+func (op *stencilOp) centreGradient(data [][]float64, comps int, dst []float64) {
+	for i := range dst[:3*comps] {
+		dst[i] = 0
+	}
+	if op.w.terms < 2 {
+		return
+	}
+	m := len(op.ids)
+	for j := 0; j < op.w.dim; j++ {
+		row := op.w.coef[(1+j)*m : (2+j)*m]
+		for c := 0; c < comps; c++ {
+			s := 0.0
+			for i, id := range op.ids {
+				s += row[i] * data[id.zone][int(id.idx)*comps+c]
+			}
+			dst[3*c+j] = s / op.w.h[j]
+		}
+	}
+}
+
 // growOp builds the operator of a quadratic fit over the samples that
 // gather returns for growing stencils (grow = 0, 1, ..., maxGrow, called in
 // that order), stopping at the first stencil with at least minSamples
@@ -139,8 +170,10 @@ func (op *stencilOp) apply(data [][]float64, comps int) *polyFit {
 // cures stencils that are large enough but degenerate, such as two layers
 // of cells at a boundary (no curvature across them). If no stencil
 // qualifies, the largest one gets the best fit of lower degree (2, 1, then
-// 0 at rankTol); with no sample at all the fit is NaN.
-func growOp(dim int, x0, h [3]float64, gather func(grow int) ([][3]float64, []sampleRef)) *stencilOp {
+// 0 at rankTol); with no sample at all the fit is NaN. The operator keeps
+// the coefficients of at most the first rows basis terms (see
+// fitOperator).
+func growOp(dim, rows int, x0, h [3]float64, gather func(grow int) ([][3]float64, []sampleRef)) *stencilOp {
 	need := minSamples(dim)
 	var pts [][3]float64
 	var ids []sampleRef
@@ -149,13 +182,13 @@ func growOp(dim int, x0, h [3]float64, gather func(grow int) ([][3]float64, []sa
 		if len(pts) < need {
 			continue
 		}
-		if w, ok := fitStencil(dim, 2, x0, h, pts, nil, 0, wellPosed); ok {
-			return &stencilOp{w: w, ids: ids}
+		if w, ok := fitOperator(dim, 2, min(rows, numTerms(dim, 2)), x0, h, pts, wellPosed); ok {
+			return &stencilOp{w: w, ids: slices.Clone(ids)}
 		}
 	}
 	for deg := 2; deg >= 0 && len(pts) > 0; deg-- {
-		if w, ok := fitStencil(dim, deg, x0, h, pts, nil, 0, rankTol); ok {
-			return &stencilOp{w: w, ids: ids}
+		if w, ok := fitOperator(dim, deg, min(rows, numTerms(dim, deg)), x0, h, pts, rankTol); ok {
+			return &stencilOp{w: w, ids: slices.Clone(ids)}
 		}
 	}
 	return &stencilOp{w: polyFit{dim: dim, terms: 1, x0: x0, h: h}}

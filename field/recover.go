@@ -1,8 +1,8 @@
 package field
 
 import (
-	"cmp"
 	"slices"
+	"sync/atomic"
 )
 
 // Gradient recovery for point data. The gradient of the shape-function
@@ -21,22 +21,48 @@ import (
 // Σ_k N_k G_k: continuous, and second order on smooth fields because the
 // fit reproduces quadratics (measured orders in doc.go).
 
-// sample is one nodal value position used in a patch fit.
-type sample struct {
-	x          [3]float64
-	zone, node int32
+// gradBlockSize is the number of consecutive nodes whose recovered
+// gradients share one lazily allocated gradBlock.
+const gradBlockSize = 64
+
+// gradBlock holds the recovered gradients of gradBlockSize consecutive
+// nodes of one zone for one array of comps components: node k of the block
+// has ∂f_c/∂x_j at g[k*3*comps+3*c+j]. state[k] is 0 while that gradient
+// is not stored, 1 while one goroutine stores it, 2 once it is stored (and
+// never written again), so readers that see 2 read it without a race.
+type gradBlock struct {
+	state [gradBlockSize]atomic.Uint32
+	g     []float64
 }
 
-// nodeFit returns the cached patch fit around node n of zone zi for array
-// p, building it on first use from the node's stencil operator.
-func (s *Sampler) nodeFit(p *prepared, zi int, n int32) *polyFit {
-	slot := &p.cache[zi][n]
-	if f := slot.Load(); f != nil {
-		return f
+// nodeGradient returns the recovered gradient G_n of array p at node n of
+// zone zi (3*comps values, ∂f_c/∂x_j at 3c+j), computed from the node's
+// stencil operator on first use and cached. Until the cached copy is
+// stored the gradient is computed into buf (len >= 3*comps) and buf is
+// returned: every computation gives the same bits.
+func (s *Sampler) nodeGradient(p *prepared, zi int, n int32, buf []float64) []float64 {
+	w := 3 * p.comps
+	slot := &p.grads[zi][n/gradBlockSize]
+	blk := slot.Load()
+	if blk == nil {
+		blk = &gradBlock{g: make([]float64, gradBlockSize*w)}
+		if !slot.CompareAndSwap(nil, blk) {
+			blk = slot.Load()
+		}
 	}
-	f := s.nodeOp(zi, n).apply(p.data, p.comps)
-	slot.Store(f)
-	return f
+	k := int(n % gradBlockSize)
+	g := blk.g[k*w : (k+1)*w]
+	st := &blk.state[k]
+	if st.Load() == 2 {
+		return g
+	}
+	buf = buf[:w]
+	s.nodeOp(zi, n).centreGradient(p.data, p.comps, buf)
+	if st.CompareAndSwap(0, 1) {
+		copy(g, buf)
+		st.Store(2)
+	}
+	return buf
 }
 
 // nodeOp returns the cached stencil operator of node n of zone zi, shared
@@ -53,13 +79,28 @@ func (s *Sampler) nodeOp(zi int, n int32) *stencilOp {
 
 func (s *Sampler) buildNodeOp(zi int, n int32) *stencilOp {
 	l := s.l
+	w := stencilWorkPool.Get().(*stencilWork)
+	defer stencilWorkPool.Put(w)
 	x := l.f.Zones[zi].Point(n)
-	refs := l.cellsAtNode(x, nil)
+	refs := l.cellsAtNode(x, w.refs[:0])
+	next := w.next[:0]
+	defer func() { w.refs, w.next = refs, next }()
+	collect := func() {
+		w.keys = patchSamples(l.f, refs, w.keys[:0])
+		w.pts, w.ids = w.pts[:0], w.ids[:0]
+		for _, q := range w.keys {
+			zq, nq := int32(q>>32), int32(uint32(q))
+			w.pts = append(w.pts, l.f.Zones[zq].Point(nq))
+			w.ids = append(w.ids, sampleRef{zq, nq})
+		}
+	}
+	collect()
+	// Scale: the largest distance from x to the box of the cells around
+	// it, which is the box of their nodes.
 	lo, hi := x, x
-	for _, r := range refs {
-		clo, chi := l.f.Zones[r.Zone].cellBounds(int(r.Cell))
+	for _, p := range w.pts {
 		for k := 0; k < 3; k++ {
-			lo[k], hi[k] = min(lo[k], clo[k]), max(hi[k], chi[k])
+			lo[k], hi[k] = min(lo[k], p[k]), max(hi[k], p[k])
 		}
 	}
 	var e [3]float64
@@ -67,73 +108,51 @@ func (s *Sampler) buildNodeOp(zi int, n int32) *stencilOp {
 		e[k] = max(x[k]-lo[k], hi[k]-x[k])
 	}
 	h := halfExtents(l.dim, [3]float64{-e[0], -e[1], -e[2]}, e)
-	next := make([]CellRef, 0, 64)
-	smp := make([]sample, 0, 64)
-	pts := make([][3]float64, 0, 64)
-	ids := make([]sampleRef, 0, 64)
-	return growOp(l.dim, x, h, func(grow int) ([][3]float64, []sampleRef) {
+	return growOp(l.dim, l.dim+1, x, h, func(grow int) ([][3]float64, []sampleRef) {
 		if grow > 0 {
-			next = l.expandRing(refs, next)
+			next = s.expandRing(refs, next, &w.ring)
 			refs, next = next, refs
+			collect()
 		}
-		smp = patchSamples(l.f, refs, smp[:0])
-		pts, ids = pts[:0], ids[:0]
-		for _, q := range smp {
-			pts = append(pts, q.x)
-			ids = append(ids, sampleRef{q.zone, q.node})
-		}
-		return pts, ids
+		return w.pts, w.ids
 	})
 }
 
-// patchSamples appends the nodes of the cells refs to dst, each node once,
-// in (zone, node) order. A position repeated in several zones (a zone
-// interface) counts once, keeping its lowest (zone, node).
-func patchSamples(f *Field, refs []CellRef, dst []sample) []sample {
+// patchSamples appends to dst the nodes of the cells refs as keys
+// zone<<32 | node, each node once, in (zone, node) order. A position
+// repeated in several zones (a zone interface) counts once, keeping its
+// lowest (zone, node).
+func patchSamples(f *Field, refs []CellRef, dst []uint64) []uint64 {
 	first := len(dst)
 	multiZone := false
 	for _, r := range refs {
 		z := f.Zones[r.Zone]
 		multiZone = multiZone || r.Zone != refs[0].Zone
 		for _, n := range z.CellNodes(int(r.Cell)) {
-			dst = append(dst, sample{zone: r.Zone, node: n})
+			dst = append(dst, uint64(r.Zone)<<32|uint64(uint32(n)))
 		}
 	}
 	s := dst[first:]
-	slices.SortFunc(s, func(a, b sample) int {
-		if a.zone != b.zone {
-			return cmp.Compare(a.zone, b.zone)
-		}
-		return cmp.Compare(a.node, b.node)
-	})
-	s = slices.CompactFunc(s, func(a, b sample) bool { return a.zone == b.zone && a.node == b.node })
-	for i := range s {
-		s[i].x = f.Zones[s[i].zone].Point(s[i].node)
-	}
+	slices.Sort(s)
+	s = slices.Compact(s)
 	if multiZone {
-		s = dedupePositions(s)
+		s = dedupePositions(f, s)
 	}
 	return dst[:first+len(s)]
 }
 
-// dedupePositions removes samples at a position already taken by an
-// earlier sample (in (zone, node) order), keeping the order of the rest.
-func dedupePositions(s []sample) []sample {
+// dedupePositions removes from the (zone, node) keys s those at a position
+// already taken by an earlier key, keeping the order of the rest.
+func dedupePositions(f *Field, s []uint64) []uint64 {
+	pos := func(q uint64) [3]float64 { return f.Zones[int32(q>>32)].Point(int32(uint32(q))) }
 	idx := make([]int, len(s))
 	for i := range idx {
 		idx[i] = i
 	}
-	slices.SortStableFunc(idx, func(a, b int) int {
-		for k := 0; k < 3; k++ {
-			if c := cmp.Compare(s[a].x[k], s[b].x[k]); c != 0 {
-				return c
-			}
-		}
-		return 0
-	})
+	slices.SortStableFunc(idx, func(a, b int) int { return comparePos(pos(s[a]), pos(s[b])) })
 	drop := make([]bool, len(s))
 	for i := 1; i < len(idx); i++ {
-		if s[idx[i]].x == s[idx[i-1]].x {
+		if pos(s[idx[i]]) == pos(s[idx[i-1]]) {
 			drop[idx[i]] = true // stable sort: idx[i-1] < idx[i]
 		}
 	}

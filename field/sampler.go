@@ -53,6 +53,10 @@ type Sampler struct {
 	// of that centering, filled lazily.
 	nodeOps, cellOps [][]atomic.Pointer[stencilOp]
 	centroids        [][]atomic.Pointer[[3]float64]
+	// cellsAt caches, per zone and point, the indexed cells having a node
+	// at the point's position (see nodeCells); allocated by the first
+	// Prepare, filled lazily.
+	cellsAt [][]atomic.Pointer[[]CellRef]
 }
 
 // prepared is one array ready for sampling.
@@ -62,8 +66,11 @@ type prepared struct {
 	comps int
 	data  [][]float64 // per zone
 	// cache holds, per zone, one lazily computed polyFit per cell (cell
-	// data) or one recovered gradient per point (point data).
+	// data only).
 	cache [][]atomic.Pointer[polyFit]
+	// grads holds, per zone, the lazily recovered nodal gradients in
+	// blocks of gradBlockSize nodes (point data only).
+	grads [][]atomic.Pointer[gradBlock]
 }
 
 // NewSampler returns a Sampler over the field of l.
@@ -108,7 +115,11 @@ func (s *Sampler) Prepare(name string) (ArrayID, error) {
 			return 0, err
 		}
 		p.data = append(p.data, a.Data)
-		p.cache = append(p.cache, make([]atomic.Pointer[polyFit], n))
+		if a.Location == AtCells {
+			p.cache = append(p.cache, make([]atomic.Pointer[polyFit], n))
+		} else {
+			p.grads = append(p.grads, make([]atomic.Pointer[gradBlock], (n+gradBlockSize-1)/gradBlockSize))
+		}
 	}
 	s.allocShared(p.at)
 	id := ArrayID(len(s.arrays))
@@ -117,9 +128,16 @@ func (s *Sampler) Prepare(name string) (ArrayID, error) {
 	return id, nil
 }
 
-// allocShared allocates the shared operator caches of centering at.
+// allocShared allocates the shared operator caches of centering at, and
+// the node-to-cells cache of every centering.
 func (s *Sampler) allocShared(at Centering) {
 	zones := s.l.f.Zones
+	if s.cellsAt == nil {
+		s.cellsAt = make([][]atomic.Pointer[[]CellRef], len(zones))
+		for i, z := range zones {
+			s.cellsAt[i] = make([]atomic.Pointer[[]CellRef], z.NumPoints())
+		}
+	}
 	if at == AtPoints && s.nodeOps == nil {
 		s.nodeOps = make([][]atomic.Pointer[stencilOp], len(zones))
 		for i, z := range zones {
@@ -197,24 +215,58 @@ func (s *Sampler) Centering(id ArrayID) Centering { return s.arrays[id].at }
 func (s *Sampler) Value(id ArrayID, at Location, dst []float64) {
 	p := s.arrays[id]
 	_ = dst[p.comps-1]
+	var st site
+	s.site(at, &st)
+	s.valueAt(p, &st, dst)
+}
+
+// site is one located point made ready for sampling several arrays there:
+// the geometry and nodes of its cell, gathered once, and the shape function
+// values at the point, computed on first need. Value and GradientWith build
+// one per call; FlowSampler builds one per evaluation, with the same
+// results.
+type site struct {
+	at    Location
+	ok    bool // the cell type has shape functions
+	g     cellGeom
+	nodes []int32
+	n     [maxCellNodes]float64
+	hasN  bool
+}
+
+// site makes st ready for sampling at the located point at.
+func (s *Sampler) site(at Location, st *site) {
 	z := s.l.f.Zones[at.Zone]
-	var g cellGeom
-	if !z.gather(int(at.Cell), &g) {
+	st.at, st.hasN = at, false
+	st.ok = z.gather(int(at.Cell), &st.g)
+	st.nodes = z.CellNodes(int(at.Cell))
+}
+
+// shape returns the shape function values N_k at the site.
+func (st *site) shape() *[maxCellNodes]float64 {
+	if !st.hasN {
+		shapeValues(st.g.t, st.at.Local, &st.n)
+		st.hasN = true
+	}
+	return &st.n
+}
+
+// valueAt is Value of array p at site st.
+func (s *Sampler) valueAt(p *prepared, st *site, dst []float64) {
+	if !st.ok {
 		fillNaN(dst[:p.comps])
 		return
 	}
 	if p.at == AtCells {
-		fit := s.cellFit(p, int(at.Zone), int(at.Cell))
-		fit.value(g.position(at.Local), dst)
+		fit := s.cellFit(p, int(st.at.Zone), int(st.at.Cell))
+		fit.value(st.g.position(st.at.Local), dst)
 		return
 	}
-	var N [maxCellNodes]float64
-	shapeValues(g.t, at.Local, &N)
-	data := p.data[at.Zone]
-	nodes := z.CellNodes(int(at.Cell))
+	N := st.shape()
+	data := p.data[st.at.Zone]
 	for c := 0; c < p.comps; c++ {
 		v := 0.0
-		for k, n := range nodes {
+		for k, n := range st.nodes {
 			v += N[k] * data[int(n)*p.comps+c]
 		}
 		dst[c] = v
@@ -242,29 +294,33 @@ func (s *Sampler) Gradient(id ArrayID, at Location, dst []float64) {
 func (s *Sampler) GradientWith(m GradientMethod, id ArrayID, at Location, dst []float64) {
 	p := s.arrays[id]
 	_ = dst[3*p.comps-1]
-	z := s.l.f.Zones[at.Zone]
-	var g cellGeom
-	if !z.gather(int(at.Cell), &g) {
+	var st site
+	s.site(at, &st)
+	s.gradientAt(m, p, &st, dst)
+}
+
+// gradientAt is GradientWith of array p at site st.
+func (s *Sampler) gradientAt(m GradientMethod, p *prepared, st *site, dst []float64) {
+	if !st.ok {
 		fillNaN(dst[:3*p.comps])
 		return
 	}
 	if p.at == AtCells {
-		fit := s.cellFit(p, int(at.Zone), int(at.Cell))
-		fit.gradient(g.position(at.Local), dst)
+		fit := s.cellFit(p, int(st.at.Zone), int(st.at.Cell))
+		fit.gradient(st.g.position(st.at.Local), dst)
 		return
 	}
-	nodes := z.CellNodes(int(at.Cell))
 	for i := range dst[:3*p.comps] {
 		dst[i] = 0
 	}
 	if m == GradientShape {
 		var dNdx [maxCellNodes][3]float64
-		if !g.gradientMap(at.Local, &dNdx) {
+		if !st.g.gradientMap(st.at.Local, &dNdx) {
 			fillNaN(dst[:3*p.comps])
 			return
 		}
-		data := p.data[at.Zone]
-		for k, n := range nodes {
+		data := p.data[st.at.Zone]
+		for k, n := range st.nodes {
 			for c := 0; c < p.comps; c++ {
 				v := data[int(n)*p.comps+c]
 				for j := 0; j < 3; j++ {
@@ -274,16 +330,14 @@ func (s *Sampler) GradientWith(m GradientMethod, id ArrayID, at Location, dst []
 		}
 		return
 	}
-	var N [maxCellNodes]float64
-	shapeValues(g.t, at.Local, &N)
+	N := st.shape()
 	var G [3 * maxInlineComps]float64
-	grad := G[:]
-	if 3*p.comps > len(grad) {
-		grad = make([]float64, 3*p.comps)
+	buf := G[:]
+	if 3*p.comps > len(buf) {
+		buf = make([]float64, 3*p.comps)
 	}
-	for k, n := range nodes {
-		s.nodeFit(p, int(at.Zone), n).centreGradient(grad)
-		for i, v := range grad[:3*p.comps] {
+	for k, n := range st.nodes {
+		for i, v := range s.nodeGradient(p, int(st.at.Zone), n, buf) {
 			dst[i] += N[k] * v
 		}
 	}

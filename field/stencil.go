@@ -1,6 +1,9 @@
 package field
 
-import "slices"
+import (
+	"slices"
+	"sync"
+)
 
 // Stencils for reconstruction and gradient recovery are rings of cells
 // linked by shared nodes. Two cells share a node when they have nodes at
@@ -35,26 +38,41 @@ func (z *Zone) hasNodeAt(c int, x [3]float64) bool {
 	return false
 }
 
+// nodeCells returns the indexed cells having a node at the position of
+// node n of zone zi (cellsAtNode), computed on first use and cached per
+// node: neighbouring stencils share most nodes. The result must not be
+// modified.
+func (s *Sampler) nodeCells(zi int, n int32) []CellRef {
+	slot := &s.cellsAt[zi][n]
+	if p := slot.Load(); p != nil {
+		return *p
+	}
+	r := slices.Clip(s.l.cellsAtNode(s.l.f.Zones[zi].Point(n), nil))
+	slot.Store(&r)
+	return r
+}
+
 // expandRing returns refs together with every indexed cell that shares a
 // node with one of them, sorted by (Zone, Cell) without duplicates. refs
 // itself may hold cells that are not indexed (a blank cell); they are
-// dropped. dst is reused for the result.
-func (l *Locator) expandRing(refs []CellRef, dst []CellRef) []CellRef {
-	dst = dst[:0]
-	var pos [][3]float64
+// dropped. dst is reused for the result, *keys as scratch space.
+func (s *Sampler) expandRing(refs []CellRef, dst []CellRef, keys *[]uint64) []CellRef {
+	ks := (*keys)[:0] // zone<<32 | cell: sorts as (Zone, Cell)
 	for _, r := range refs {
-		z := l.f.Zones[r.Zone]
-		for _, n := range z.CellNodes(int(r.Cell)) {
-			pos = append(pos, z.Point(n))
+		for _, n := range s.l.f.Zones[r.Zone].CellNodes(int(r.Cell)) {
+			for _, c := range s.nodeCells(int(r.Zone), n) {
+				ks = append(ks, uint64(c.Zone)<<32|uint64(uint32(c.Cell)))
+			}
 		}
 	}
-	slices.SortFunc(pos, comparePos)
-	pos = slices.Compact(pos)
-	for _, x := range pos {
-		dst = l.cellsAtNode(x, dst)
+	slices.Sort(ks)
+	ks = slices.Compact(ks)
+	*keys = ks
+	dst = dst[:0]
+	for _, k := range ks {
+		dst = append(dst, CellRef{int32(k >> 32), int32(uint32(k))})
 	}
-	slices.SortFunc(dst, compareRefs)
-	return slices.Compact(dst)
+	return dst
 }
 
 func comparePos(a, b [3]float64) int {
@@ -68,3 +86,14 @@ func comparePos(a, b [3]float64) int {
 	}
 	return 0
 }
+
+// stencilWork is scratch space for building one stencil operator, pooled
+// so that only the operator itself is allocated.
+type stencilWork struct {
+	refs, next []CellRef
+	keys, ring []uint64
+	pts        [][3]float64
+	ids        []sampleRef
+}
+
+var stencilWorkPool = sync.Pool{New: func() any { return new(stencilWork) }}
