@@ -131,11 +131,13 @@ func WriteVTK(w io.Writer, z *field.Zone, opt WriteOptions) error {
 		}
 		cellArrays = append(cellArrays, field.Array{Name: "vtkGhostType", Location: field.AtCells, Components: 1, Data: g})
 	}
-	if z.NumCells() > 0 && len(cellArrays) > 0 {
+	// Sections are written even for zero cells or points (a file whose only
+	// cells were empty cells), so that the arrays survive a round trip.
+	if len(cellArrays) > 0 {
 		vw.printf("CELL_DATA %d\n", z.NumCells())
 		vw.arrays(cellArrays, z.NumCells())
 	}
-	if z.NumPoints() > 0 && len(pointArrays) > 0 {
+	if len(pointArrays) > 0 {
 		vw.printf("POINT_DATA %d\n", z.NumPoints())
 		vw.arrays(pointArrays, z.NumPoints())
 	}
