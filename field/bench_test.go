@@ -43,7 +43,7 @@ func benchmarkBuild(b *testing.B, name string) {
 	z := benchZone(b, name)
 	f := &field.Field{Zones: []*field.Zone{z}}
 	b.ReportAllocs()
-	cpu0 := processCPU()
+	cpu0 := fieldtest.ProcessCPU()
 	b.ResetTimer()
 	for b.Loop() {
 		if _, err := field.NewLocator(f); err != nil {
@@ -52,7 +52,7 @@ func benchmarkBuild(b *testing.B, name string) {
 	}
 	cells := float64(b.N) * float64(z.NumCells())
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/cells, "ns/cell")
-	b.ReportMetric(float64((processCPU()-cpu0).Nanoseconds())/cells, "cpu-ns/cell")
+	b.ReportMetric(float64((fieldtest.ProcessCPU()-cpu0).Nanoseconds())/cells, "cpu-ns/cell")
 	b.ReportMetric(cells/b.Elapsed().Seconds(), "cells/s")
 }
 
@@ -85,7 +85,7 @@ func benchmarkLocate(b *testing.B, name string, coherent bool) {
 	runtime.LockOSThread()
 	defer runtime.UnlockOSThread()
 	b.ReportAllocs()
-	cpu0 := threadCPU()
+	cpu0 := fieldtest.ThreadCPU()
 	b.ResetTimer()
 	i := 0
 	for b.Loop() {
@@ -95,7 +95,7 @@ func benchmarkLocate(b *testing.B, name string, coherent bool) {
 		i++
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N), "ns/query")
-	b.ReportMetric(float64((threadCPU()-cpu0).Nanoseconds())/float64(b.N), "cpu-ns/query")
+	b.ReportMetric(float64((fieldtest.ThreadCPU()-cpu0).Nanoseconds())/float64(b.N), "cpu-ns/query")
 }
 
 func BenchmarkLocateHexaRandom(b *testing.B)    { benchmarkLocate(b, "hexa", false) }
@@ -138,7 +138,7 @@ func benchmarkSample(b *testing.B, at field.Centering, cold bool) {
 	runtime.LockOSThread()
 	defer runtime.UnlockOSThread()
 	b.ReportAllocs()
-	cpu0 := threadCPU()
+	cpu0 := fieldtest.ThreadCPU()
 	b.ResetTimer()
 	for b.Loop() {
 		if cold {
@@ -153,7 +153,7 @@ func benchmarkSample(b *testing.B, at field.Centering, cold bool) {
 	}
 	n := float64(b.N * len(locs))
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/n, "ns/sample")
-	b.ReportMetric(float64((threadCPU()-cpu0).Nanoseconds())/n, "cpu-ns/sample")
+	b.ReportMetric(float64((fieldtest.ThreadCPU()-cpu0).Nanoseconds())/n, "cpu-ns/sample")
 }
 
 func BenchmarkSamplePointDataWarm(b *testing.B) { benchmarkSample(b, field.AtPoints, false) }

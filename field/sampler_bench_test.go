@@ -20,14 +20,7 @@ import (
 func benchmarkFlowSphere(b *testing.B, cold bool) {
 	z := fieldtest.BoxHex(unitLo, unitHi, [3]int{100, 100, 100})
 	fieldtest.Perturb(z, 0.1/100, 7)
-	fieldtest.SamplePoints(z, "velocity", 3, func(x [3]float64, dst []float64) {
-		dst[0] = 1 + 0.1*math.Sin(2*x[0])*math.Cos(x[1])
-		dst[1] = 0.1 * math.Cos(x[1]+x[2])
-		dst[2] = 0.05 * x[2] * x[0]
-	})
-	fieldtest.SamplePoints(z, "pressure", 1, func(x [3]float64, dst []float64) {
-		dst[0] = 0.5 * math.Exp(-x[0]*x[0]-x[1]*x[1]-x[2]*x[2])
-	})
+	fieldtest.SampleBenchFlow(z)
 	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
 	if err != nil {
 		b.Fatal(err)
@@ -67,11 +60,11 @@ func benchmarkFlowSphere(b *testing.B, cold bool) {
 			ev = newEval()
 			b.StartTimer()
 		}
-		c0 := threadCPU()
+		c0 := fieldtest.ThreadCPU()
 		for _, loc := range locs {
 			ev.EvalFlow(loc, [3]float64{}, &st)
 		}
-		cpu += int64(threadCPU() - c0)
+		cpu += int64(fieldtest.ThreadCPU() - c0)
 	}
 	n := float64(b.N * len(locs))
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/n, "ns/point")

@@ -437,20 +437,11 @@ func (m *multilinearMap) eval(r [3]float64, dim int) (x [3]float64, J [3][3]floa
 
 // newtonStep returns the Newton step d = J⁻¹ (p - x(r)) at r, the residual
 // p - x(r), and whether J is regular: eval followed by solve3, with the
-// same arithmetic, kept in registers.
+// same arithmetic.
 func (m *multilinearMap) newtonStep(r, p [3]float64, dim int) (d, res [3]float64, ok bool) {
-	u, v, w := r[0], r[1], r[2]
-	var J [3][3]float64
+	x, J := m.eval(r, dim)
 	for k := 0; k < dim; k++ {
-		a, b, c, dd, e, f, g, h := m[0][k], m[1][k], m[2][k], m[3][k], m[4][k], m[5][k], m[6][k], m[7][k]
-		res[k] = p[k] - (a + b*u + c*v + dd*w + e*u*v + f*v*w + g*w*u + h*u*v*w)
-		J[k][0] = b + e*v + g*w + h*v*w
-		J[k][1] = c + e*u + f*w + h*u*w
-		J[k][2] = dd + f*v + g*u + h*u*v
-	}
-	if dim == 2 {
-		J[0][2], J[1][2] = 0, 0
-		J[2] = [3]float64{0, 0, 1}
+		res[k] = p[k] - x[k]
 	}
 	d, ok = solve3(J, res)
 	return d, res, ok

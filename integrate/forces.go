@@ -25,7 +25,7 @@ const (
 	nSums = 26
 )
 
-type sums [nSums]neumaier
+type sums [nSums]field.CompensatedSum
 
 // Forces integrates the momentum balance over the cut c with the flow
 // given by flow and returns forces, their parts, the moment about
@@ -67,7 +67,7 @@ func Forces(c *surface.Cut, flow field.FlowEvaluator, opt Options) (Result, erro
 		return Result{}, err
 	}
 	for i := range total {
-		if v := total[i].value(); !finite(v) {
+		if v := total[i].Value(); !finite(v) {
 			return Result{}, fmt.Errorf("%w: surface %q: an integral is %g", ErrOverflow, c.Spec, v)
 		}
 	}
@@ -82,19 +82,19 @@ func Forces(c *surface.Cut, flow field.FlowEvaluator, opt Options) (Result, erro
 		r.Form = "deficit"
 	}
 	for k := 0; k < 3; k++ {
-		r.Terms.Momentum[k] = total[sMom+k].value()
-		r.Terms.Pressure[k] = total[sPrs+k].value()
-		r.Terms.Viscous[k] = total[sVis+k].value()
-		r.Terms.Reynolds[k] = total[sRey+k].value()
-		r.MomentTerms.Momentum[k] = total[sMom2+sMom+k].value()
-		r.MomentTerms.Pressure[k] = total[sMom2+sPrs+k].value()
-		r.MomentTerms.Viscous[k] = total[sMom2+sVis+k].value()
-		r.MomentTerms.Reynolds[k] = total[sMom2+sRey+k].value()
+		r.Terms.Momentum[k] = total[sMom+k].Value()
+		r.Terms.Pressure[k] = total[sPrs+k].Value()
+		r.Terms.Viscous[k] = total[sVis+k].Value()
+		r.Terms.Reynolds[k] = total[sRey+k].Value()
+		r.MomentTerms.Momentum[k] = total[sMom2+sMom+k].Value()
+		r.MomentTerms.Pressure[k] = total[sMom2+sPrs+k].Value()
+		r.MomentTerms.Viscous[k] = total[sMom2+sVis+k].Value()
+		r.MomentTerms.Reynolds[k] = total[sMom2+sRey+k].Value()
 	}
 	r.Force = r.Terms.Sum()
 	r.Moment = r.MomentTerms.Sum()
-	r.MassFlux = total[sMass].value()
-	r.MassAbs = total[sAbs].value()
+	r.MassFlux = total[sMass].Value()
+	r.MassAbs = total[sAbs].Value()
 	if r.MassAbs > 0 {
 		r.MassImbalance = r.MassFlux / r.MassAbs
 	}
@@ -125,7 +125,7 @@ func integrate(c *surface.Cut, flow field.FlowEvaluator, opt *Options) (sums, er
 	}
 	for k := range partial {
 		for i := range total {
-			total[i].merge(partial[k][i])
+			total[i].Merge(partial[k][i])
 		}
 	}
 	return total, nil
@@ -155,8 +155,8 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 		}
 		w, n := q.W, q.N
 		vn := dot(st.V, n)
-		acc[sMass].add(st.Rho * vn * w)
-		acc[sAbs].add(st.Rho * math.Abs(vn) * w)
+		acc[sMass].Add(st.Rho * vn * w)
+		acc[sAbs].Add(st.Rho * math.Abs(vn) * w)
 
 		var mom, momPlain, prs, vis, rey Vec3
 		if !opt.NoConvection {
@@ -182,14 +182,14 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 			}
 		}
 		for k := 0; k < 3; k++ {
-			acc[sMom+k].add(mom[k])
-			acc[sPrs+k].add(prs[k])
-			acc[sVis+k].add(vis[k])
-			acc[sRey+k].add(rey[k])
+			acc[sMom+k].Add(mom[k])
+			acc[sPrs+k].Add(prs[k])
+			acc[sVis+k].Add(vis[k])
+			acc[sRey+k].Add(rey[k])
 		}
 		for t, v := range [4]Vec3{cross(r, momPlain), cross(r, prs), cross(r, vis), cross(r, rey)} {
 			for k := 0; k < 3; k++ {
-				acc[sMom2+3*t+k].add(v[k])
+				acc[sMom2+3*t+k].Add(v[k])
 			}
 		}
 	}

@@ -614,8 +614,8 @@ func wallLoads(z *field.Zone, w WallOptions, pRef, q float64) (p, t wallLoad, er
 // loadSums sums the loads over the oriented wall (see NearField for the
 // quadrature) with compensated sums in facet order.
 func (w *wall) loadSums(p, t *wallLoad, xc Vec3) NearResult {
-	var fp, ff, mo [3]neumaier
-	var area neumaier
+	var fp, ff, mo [3]field.CompensatedSum
+	var area field.CompensatedSum
 	var res NearResult
 	var pv [3]float64 // pressure at the piece's nodes
 	var tv [3]Vec3    // traction at the piece's nodes
@@ -665,7 +665,7 @@ func (w *wall) loadSums(p, t *wallLoad, xc Vec3) NearResult {
 			if a == 0 {
 				return
 			}
-			area.add(a)
+			area.Add(a)
 			m := float64(len(x))
 			var psum float64
 			var tsum, rsum, lsum, rl Vec3
@@ -691,14 +691,14 @@ func (w *wall) loadSums(p, t *wallLoad, xc Vec3) NearResult {
 			}
 			rs := cross(rsum, lsum)
 			for k := 0; k < 3; k++ {
-				fp[k].add(-an[k] * psum / m)
-				ff[k].add(a * tsum[k] / m)
-				mo[k].add(mw * (rl[k] + rs[k]))
+				fp[k].Add(-an[k] * psum / m)
+				ff[k].Add(a * tsum[k] / m)
+				mo[k].Add(mw * (rl[k] + rs[k]))
 			}
 		})
 	}
 	res.setForces(&fp, &ff, &mo)
-	res.Area = area.value()
+	res.Area = area.Value()
 	res.Facets = len(w.facets)
 	res.Parts = len(w.open)
 	for _, o := range w.open {
@@ -769,11 +769,11 @@ func CompareNearFar(far Result, near NearResult) NearFarDifference {
 // setForces stores in r the compensated sums of the pressure force fp,
 // the friction force ff and the moment mo, with Force = Pressure +
 // Friction.
-func (r *NearResult) setForces(fp, ff, mo *[3]neumaier) {
+func (r *NearResult) setForces(fp, ff, mo *[3]field.CompensatedSum) {
 	for k := 0; k < 3; k++ {
-		r.Pressure[k] = fp[k].value()
-		r.Friction[k] = ff[k].value()
+		r.Pressure[k] = fp[k].Value()
+		r.Friction[k] = ff[k].Value()
 		r.Force[k] = r.Pressure[k] + r.Friction[k]
-		r.Moment[k] = mo[k].value()
+		r.Moment[k] = mo[k].Value()
 	}
 }

@@ -57,8 +57,8 @@ func NearFieldVolume(l *field.Locator, flow field.FlowEvaluator, faces []field.B
 		return res, err
 	}
 	xc := opt.MomentCenter
-	var fp, ff, mo [3]neumaier
-	var area neumaier
+	var fp, ff, mo [3]field.CompensatedSum
+	var area field.CompensatedSum
 	var st field.FlowState
 	var pts []facePoint
 	for fi, fc := range faces {
@@ -87,15 +87,15 @@ func NearFieldVolume(l *field.Locator, flow field.FlowEvaluator, faces []field.B
 			r := sub(q.x, xc)
 			m := cross(r, Vec3{prs[0] + vis[0], prs[1] + vis[1], prs[2] + vis[2]})
 			for k := 0; k < 3; k++ {
-				fp[k].add(q.w * prs[k])
-				ff[k].add(q.w * vis[k])
-				mo[k].add(q.w * m[k])
+				fp[k].Add(q.w * prs[k])
+				ff[k].Add(q.w * vis[k])
+				mo[k].Add(q.w * m[k])
 			}
-			area.add(q.w)
+			area.Add(q.w)
 		}
 	}
 	res.setForces(&fp, &ff, &mo)
-	res.Area, res.Facets = area.value(), len(faces)
+	res.Area, res.Facets = area.Value(), len(faces)
 	res.Dim, res.MomentCenter = dim, xc
 	res.HasWind, res.Axes = hasWind, axes
 	res.project(&opt)

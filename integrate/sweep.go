@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"sort"
+
+	"farforce/field"
 )
 
 // SweepMember is one member of a control-surface size sweep: the surface
@@ -215,13 +217,13 @@ func plateau(s, d, l []float64, order []int, band float64) Plateau {
 }
 
 func meanHalfRange(x []float64) (mean, half float64) {
-	var acc neumaier
+	var acc field.CompensatedSum
 	lo, hi := x[0], x[0]
 	for _, v := range x {
-		acc.add(v)
+		acc.Add(v)
 		lo, hi = math.Min(lo, v), math.Max(hi, v)
 	}
-	return acc.value() / float64(len(x)), (hi - lo) / 2
+	return acc.Value() / float64(len(x)), (hi - lo) / 2
 }
 
 // drift fits the drag and lift trends (see Drift); tol is the drift
@@ -253,28 +255,28 @@ func drift(s, d, l []float64, tol float64) Drift {
 // n ≤ 2). x must hold at least two distinct values.
 func lineFit(x, y []float64) (slope, slopeErr, resid float64) {
 	n := float64(len(x))
-	var sx, sy neumaier
+	var sx, sy field.CompensatedSum
 	for i := range x {
-		sx.add(x[i])
-		sy.add(y[i])
+		sx.Add(x[i])
+		sy.Add(y[i])
 	}
-	mx, my := sx.value()/n, sy.value()/n
-	var sxx, sxy neumaier
+	mx, my := sx.Value()/n, sy.Value()/n
+	var sxx, sxy field.CompensatedSum
 	for i := range x {
-		sxx.add((x[i] - mx) * (x[i] - mx))
-		sxy.add((x[i] - mx) * (y[i] - my))
+		sxx.Add((x[i] - mx) * (x[i] - mx))
+		sxy.Add((x[i] - mx) * (y[i] - my))
 	}
-	slope = sxy.value() / sxx.value()
+	slope = sxy.Value() / sxx.Value()
 	if len(x) <= 2 {
 		return slope, 0, 0
 	}
-	var ssr neumaier
+	var ssr field.CompensatedSum
 	for i := range x {
 		r := y[i] - my - slope*(x[i]-mx)
-		ssr.add(r * r)
+		ssr.Add(r * r)
 	}
-	resid = math.Sqrt(ssr.value() / (n - 2))
-	return slope, resid / math.Sqrt(sxx.value()), resid
+	resid = math.Sqrt(ssr.Value() / (n - 2))
+	return slope, resid / math.Sqrt(sxx.Value()), resid
 }
 
 // correlation returns Pearson's correlation coefficient of x and y, or 0

@@ -131,18 +131,18 @@ func Wake(c *surface.Cut, flow field.FlowEvaluator, opt WakeOptions) (WakeResult
 		r.Drags = append(r.Drags, WakeDrag{Key: key, Name: name, Formula: formula, Value: v})
 	}
 	add(WakeMomentum, "exact wake-plane momentum", "∬[ρu(U∞−u) + (p∞−p) + τxx]dS", mom.Wind.Drag)
-	add(WakeDeficit, "far-wake momentum deficit", "ρ∬u(U∞−u)dS", s[wDeficit].value())
-	add(WakeLinear, "linearised far-wake deficit", "ρU∞∬(U∞−u)dS", s[wLinear].value())
-	add(WakeBetz, "Betz profile drag", "∬[(p0∞−p0) + ½ρ(u*−u)(u*+u−2U∞)]dS", s[wBetz].value())
-	add(WakeCrossKE, "crossflow kinetic energy (cut)", "½ρ∬(v²+w²)dS", s[wCross].value())
-	add(WakeBlockage, "Betz blockage term", "−½ρ∬(U∞−u*)²dS", s[wBlock].value())
-	add(WakeJones, "Jones (incompressible)", "2∬√(p0−p)(√(p0∞−p∞)−√(p0−p∞))dS", s[wJones].value())
-	r.BetzClamped, r.JonesClamped = s[wBetzClamp].value(), s[wJonesClamp].value()
+	add(WakeDeficit, "far-wake momentum deficit", "ρ∬u(U∞−u)dS", s[wDeficit].Value())
+	add(WakeLinear, "linearised far-wake deficit", "ρU∞∬(U∞−u)dS", s[wLinear].Value())
+	add(WakeBetz, "Betz profile drag", "∬[(p0∞−p0) + ½ρ(u*−u)(u*+u−2U∞)]dS", s[wBetz].Value())
+	add(WakeCrossKE, "crossflow kinetic energy (cut)", "½ρ∬(v²+w²)dS", s[wCross].Value())
+	add(WakeBlockage, "Betz blockage term", "−½ρ∬(U∞−u*)²dS", s[wBlock].Value())
+	add(WakeJones, "Jones (incompressible)", "2∬√(p0−p)(√(p0∞−p∞)−√(p0−p∞))dS", s[wJones].Value())
+	r.BetzClamped, r.JonesClamped = s[wBetzClamp].Value(), s[wJonesClamp].Value()
 	if opt.Gamma > 0 {
-		add(WakeJonesComp, "Jones (compressible, point by point)", "ρ∞U∞²∬(ρ/ρ∞)(u/U∞)(1−u1/U∞)dS", s[wJonesC].value())
-		add(WakeEntropy, "Oswatitsch entropy drag", "(T∞/U∞)∬ρuΔs dS", s[wEntropy].value())
-		r.EntropyAway, r.EntropyNegative = s[wEntAway].value(), s[wEntNeg].value()
-		if e := s[wEntropy].value(); math.Abs(r.EntropyAway) > 0.01*math.Abs(e) && r.EntropyAway > 0 {
+		add(WakeJonesComp, "Jones (compressible, point by point)", "ρ∞U∞²∬(ρ/ρ∞)(u/U∞)(1−u1/U∞)dS", s[wJonesC].Value())
+		add(WakeEntropy, "Oswatitsch entropy drag", "(T∞/U∞)∬ρuΔs dS", s[wEntropy].Value())
+		r.EntropyAway, r.EntropyNegative = s[wEntAway].Value(), s[wEntNeg].Value()
+		if e := s[wEntropy].Value(); math.Abs(r.EntropyAway) > 0.01*math.Abs(e) && r.EntropyAway > 0 {
 			r.Flags = append(r.Flags, fmt.Sprintf("%.3g of the entropy drag (%.1f %%) comes from points outside the viscous wake: entropy made away from the wake (shocks, or numerical dissipation: spurious drag)",
 				r.EntropyAway, 100*r.EntropyAway/math.Abs(e)))
 		}
@@ -222,7 +222,7 @@ const (
 	nWake
 )
 
-type wakeAcc [nWake]neumaier
+type wakeAcc [nWake]field.CompensatedSum
 
 // wakeSums evaluates the flow at every quadrature point of c (in
 // parallel, in fixed chunks) and sums the wake integrands in point order.
@@ -258,7 +258,7 @@ func wakeSums(c *surface.Cut, flow field.FlowEvaluator, opt *WakeOptions) (wakeA
 	}
 	for k := range partial {
 		for i := range total {
-			total[i].merge(partial[k][i])
+			total[i].Merge(partial[k][i])
 		}
 	}
 	var vmax float64
@@ -272,13 +272,13 @@ func wakeSums(c *surface.Cut, flow field.FlowEvaluator, opt *WakeOptions) (wakeA
 	for i, e := range ent {
 		switch {
 		case e < 0:
-			total[wEntNeg].add(e)
+			total[wEntNeg].Add(e)
 		case e > 0 && !turb[i] && !(vort[i] > frac*vmax):
-			total[wEntAway].add(e)
+			total[wEntAway].Add(e)
 		}
 	}
 	for i := range total {
-		if v := total[i].value(); !finite(v) {
+		if v := total[i].Value(); !finite(v) {
 			return total, fmt.Errorf("%w: wake plane %q: an integral is %g", ErrOverflow, c.Spec, v)
 		}
 	}
@@ -299,22 +299,22 @@ func wakePoint(st *field.FlowState, q *surface.QuadPoint, opt *WakeOptions, acc 
 	cross := math.Max(v2-u*u, 0)
 	p0 := p + 0.5*rho*v2
 	p0Inf := opt.Free.P + 0.5*opt.Free.Rho*uInf*uInf
-	acc[wDeficit].add(rho * u * (uInf - u) * w)
-	acc[wLinear].add(rho * uInf * (uInf - u) * w)
-	acc[wCross].add(0.5 * rho * cross * w)
+	acc[wDeficit].Add(rho * u * (uInf - u) * w)
+	acc[wLinear].Add(rho * uInf * (uInf - u) * w)
+	acc[wCross].Add(0.5 * rho * cross * w)
 	if !(rho > 0) {
 		return rho, fmt.Errorf("density")
 	}
 	if us, ok := BetzVelocity(u, p0, p0Inf, rho); ok {
-		acc[wBetz].add(BetzProfile(u, us, p0, p0Inf, rho, uInf) * w)
-		acc[wBlock].add(-0.5 * rho * sq(uInf-us) * w)
+		acc[wBetz].Add(BetzProfile(u, us, p0, p0Inf, rho, uInf) * w)
+		acc[wBlock].Add(-0.5 * rho * sq(uInf-us) * w)
 	} else {
-		acc[wBetzClamp].add(w)
+		acc[wBetzClamp].Add(w)
 	}
 	if j, ok := Jones(p0, p, p0Inf, opt.Free.P); ok {
-		acc[wJones].add(j * w)
+		acc[wJones].Add(j * w)
 	} else {
-		acc[wJonesClamp].add(w)
+		acc[wJonesClamp].Add(w)
 	}
 	if opt.Gamma == 0 {
 		return 0, nil
@@ -326,10 +326,10 @@ func wakePoint(st *field.FlowState, q *surface.QuadPoint, opt *WakeOptions, acc 
 	p0c := TotalPressureCompressible(p, rho, v2, g)
 	p0cInf := TotalPressureCompressible(opt.Free.P, opt.Free.Rho, uInf*uInf, g)
 	if j, ok := JonesCompressible(p0c, p, p0cInf, opt.Free.P, opt.Free.Rho*uInf*uInf, g); ok {
-		acc[wJonesC].add(j * w)
+		acc[wJonesC].Add(j * w)
 	}
 	e := opt.Free.P / (opt.Free.Rho * uInf) * rho * u * EntropyRise(p, rho, opt.Free.P, opt.Free.Rho, g) * w
-	acc[wEntropy].add(e)
+	acc[wEntropy].Add(e)
 	return e, nil
 }
 

@@ -116,11 +116,11 @@ func Crossflow(g *surface.PlaneGrid, flow field.FlowEvaluator, opt WakeOptions) 
 	da := h1 * h2
 	r := CrossflowResult{Grid: [2]int{n1, n2}, H: [2]float64{h1, h2}}
 
-	var ke neumaier
+	var ke field.CompensatedSum
 	for k := 0; k < n; k++ {
-		ke.add(0.5 * rho * (v[k]*v[k] + w[k]*w[k]) * da)
+		ke.Add(0.5 * rho * (v[k]*v[k] + w[k]*w[k]) * da)
 	}
-	r.Energy = ke.value()
+	r.Energy = ke.Value()
 
 	// Vorticity and divergence at the corners.
 	pg := poissonGrid{m1: n1 - 1, m2: n2 - 1, h1: h1, h2: h2}
@@ -140,19 +140,19 @@ func Crossflow(g *surface.PlaneGrid, flow field.FlowEvaluator, opt WakeOptions) 
 	corner := func(i, j int) (float64, float64) {
 		return g.Plane.Min[0] + float64(i)*h1 - c1, g.Plane.Min[1] + float64(j)*h2 - c2
 	}
-	var circ, src, mre, mim neumaier
+	var circ, src, mre, mim field.CompensatedSum
 	for j := 1; j < n2; j++ {
 		for i := 1; i < n1; i++ {
 			k := pg.idx(i, j)
 			a, b := corner(i, j)
-			circ.add(xi[k] * da)
-			src.add(sig[k] * da)
-			mre.add(-(sig[k]*a + xi[k]*b) * da / (2 * math.Pi))
-			mim.add(-(sig[k]*b - xi[k]*a) * da / (2 * math.Pi))
+			circ.Add(xi[k] * da)
+			src.Add(sig[k] * da)
+			mre.Add(-(sig[k]*a + xi[k]*b) * da / (2 * math.Pi))
+			mim.Add(-(sig[k]*b - xi[k]*a) * da / (2 * math.Pi))
 		}
 	}
-	r.NetCirculation, r.NetSource = circ.value(), src.value()
-	r.Dipole = [2]float64{mre.value(), mim.value()}
+	r.NetCirculation, r.NetSource = circ.Value(), src.Value()
+	r.Dipole = [2]float64{mre.Value(), mim.Value()}
 	ha, hb := (g.Plane.Max[0]-g.Plane.Min[0])/2, (g.Plane.Max[1]-g.Plane.Min[1])/2
 	r.Tail = 0.5 * rho * (sq(r.Dipole[0]) + sq(r.Dipole[1])) * rectExteriorR4(ha, hb)
 	r.EnergyTail = r.Energy + r.Tail
@@ -168,30 +168,30 @@ func Crossflow(g *surface.PlaneGrid, flow field.FlowEvaluator, opt WakeOptions) 
 	}
 	psi := pg.solve(negXi, psiB)
 	phi := pg.solve(sig, phiB)
-	var mv, ms neumaier
+	var mv, ms field.CompensatedSum
 	for j := 1; j < n2; j++ {
 		for i := 1; i < n1; i++ {
 			k := pg.idx(i, j)
-			mv.add(0.5 * rho * psi[k] * xi[k] * da)
-			ms.add(-0.5 * rho * phi[k] * sig[k] * da)
+			mv.Add(0.5 * rho * psi[k] * xi[k] * da)
+			ms.Add(-0.5 * rho * phi[k] * sig[k] * da)
 		}
 	}
-	r.MaskellVortex, r.MaskellSource = mv.value(), ms.value()
+	r.MaskellVortex, r.MaskellSource = mv.Value(), ms.Value()
 	r.Maskell = r.MaskellVortex + r.MaskellSource
 
 	// Loading: Γ at column i is minus the vorticity of corner columns 1..i.
 	r.Loading = make([]LoadingPoint, n1)
-	var gam, lift neumaier
+	var gam, lift field.CompensatedSum
 	for i := 0; i < n1; i++ {
 		if i > 0 {
 			for j := 1; j < n2; j++ {
-				gam.add(-xi[pg.idx(i, j)] * da)
+				gam.Add(-xi[pg.idx(i, j)] * da)
 			}
 		}
-		r.Loading[i] = LoadingPoint{S1: g.S1(i), Gamma: gam.value()}
-		lift.add(rho * uInf * gam.value() * h1)
+		r.Loading[i] = LoadingPoint{S1: g.S1(i), Gamma: gam.Value()}
+		lift.Add(rho * uInf * gam.Value() * h1)
 	}
-	r.Lift = lift.value()
+	r.Lift = lift.Value()
 	r.finish(&opt)
 	if fl := tiltFlag(g.Plane.Normal, opt.Free.V); fl != "" {
 		r.Flags = append(r.Flags, fl)
@@ -301,14 +301,14 @@ func edgeValues(pg poissonGrid, xi, sig []float64, corner func(i, j int) (float6
 	err = forChunks((len(frame)+chunk-1)/chunk, workers, func(c int) error {
 		for _, f := range frame[c*chunk : min((c+1)*chunk, len(frame))] {
 			a, b := corner(f[0], f[1])
-			var sp, sf neumaier
+			var sp, sf field.CompensatedSum
 			for _, s := range srcs {
 				lr := 0.5 * math.Log(sq(a-s.a)+sq(b-s.b))
-				sp.add(-s.xi * lr)
-				sf.add(s.sig * lr)
+				sp.Add(-s.xi * lr)
+				sf.Add(s.sig * lr)
 			}
 			k := pg.idx(f[0], f[1])
-			psi[k], phi[k] = sp.value(), sf.value()
+			psi[k], phi[k] = sp.Value(), sf.Value()
 		}
 		return nil
 	})

@@ -137,7 +137,7 @@ func TestJonesCompressibleLimit(t *testing.T) {
 		q := 0.5 * g * pinf * m * m
 		rhoInf := 1.0
 		u2 := g * pinf / rhoInf * m * m
-		var jc, ji neumaier
+		var jc, ji field.CompensatedSum
 		for k := 0; k <= 4000; k++ {
 			y := -0.2 + 0.4*float64(k)/4000
 			p0 := p0inf - 0.3*q*math.Exp(-sq(y/0.05))
@@ -147,11 +147,11 @@ func TestJonesCompressibleLimit(t *testing.T) {
 			if !ok1 || !ok2 {
 				t.Fatalf("M=%g y=%g: formula refused", m, y)
 			}
-			jc.add(a)
-			ji.add(b)
+			jc.Add(a)
+			ji.Add(b)
 		}
 		ms = append(ms, m)
-		diffs = append(diffs, math.Abs(jc.value()/ji.value()-1))
+		diffs = append(diffs, math.Abs(jc.Value()/ji.Value()-1))
 	}
 	if ord := fitOrder(ms, diffs); !(math.Abs(ord-2) <= 0.15) {
 		t.Errorf("compressible − incompressible Jones: order %.3f in M (differences %v), want 2", ord, diffs)
@@ -198,16 +198,16 @@ func TestEntropyDragSmallLoss(t *testing.T) {
 	h0 := cp + uInf*uInf/2
 	var amps, rel []float64
 	for _, amp := range []float64{0.04, 0.02, 0.01} {
-		var ent, def neumaier
+		var ent, def field.CompensatedSum
 		for k := -2000; k <= 2000; k++ {
 			y := float64(k) / 1000
 			u := uInf * (1 - amp*math.Exp(-y*y))
 			cpT := h0 - u*u/2 // c_p T from uniform total enthalpy
 			rho := pinf / (cpT * (g - 1) / g)
-			ent.add(pinf / (rhoInf * uInf) * rho * u * EntropyRise(pinf, rho, pinf, rhoInf, g))
-			def.add(rho * u * (uInf - u))
+			ent.Add(pinf / (rhoInf * uInf) * rho * u * EntropyRise(pinf, rho, pinf, rhoInf, g))
+			def.Add(rho * u * (uInf - u))
 		}
-		amps, rel = append(amps, amp), append(rel, math.Abs(ent.value()/def.value()-1))
+		amps, rel = append(amps, amp), append(rel, math.Abs(ent.Value()/def.Value()-1))
 	}
 	if ord := fitOrder(amps, rel); !(math.Abs(ord-1) <= 0.1) {
 		t.Errorf("entropy vs deficit drag: order %.3f in the amplitude (relative differences %v), want 1", ord, rel)

@@ -11,7 +11,6 @@ import (
 	"runtime/metrics"
 	"strconv"
 	"sync"
-	"syscall"
 	"testing"
 	"time"
 
@@ -137,7 +136,7 @@ func benchRead(b *testing.B, kind string, cells int, binary bool, workers int) {
 	b.ReportAllocs()
 	stop := make(chan struct{})
 	peak := peakHeap(stop)
-	cpu0 := cpuTime()
+	cpu0 := fieldtest.ProcessCPU()
 	b.ResetTimer()
 	var nc int
 	for i := 0; i < b.N; i++ {
@@ -151,7 +150,7 @@ func benchRead(b *testing.B, kind string, cells int, binary bool, workers int) {
 	close(stop)
 	// CPU time of the process per read: on a shared machine wall time
 	// depends on other load, CPU time much less.
-	b.ReportMetric((cpuTime()-cpu0).Seconds()*1000/float64(b.N), "cpu-ms/op")
+	b.ReportMetric((fieldtest.ProcessCPU()-cpu0).Seconds()*1000/float64(b.N), "cpu-ms/op")
 	b.ReportMetric(float64(nc)*float64(b.N)/b.Elapsed().Seconds(), "cells/s")
 	b.ReportMetric(float64(<-peak)/(1<<20), "peak-heap-MB")
 	b.ReportMetric(float64(st.Size())/(1<<20), "file-MB")
@@ -173,15 +172,6 @@ func benchBaseline(b *testing.B, kind string, cells int, binary bool) {
 			b.Fatal(err)
 		}
 	}
-}
-
-// cpuTime returns the user+system CPU time of the process.
-func cpuTime() time.Duration {
-	var ru syscall.Rusage
-	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
-		return 0
-	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
 }
 
 // bigSizes are the mesh sizes benchmarked: 1M cells, plus 5M when
@@ -264,7 +254,7 @@ func BenchmarkReadCompressed(b *testing.B) {
 			}
 			b.SetBytes(int64(len(raw)))
 			b.ReportAllocs()
-			cpu0 := cpuTime()
+			cpu0 := fieldtest.ProcessCPU()
 			b.ResetTimer()
 			for i := 0; i < b.N; i++ {
 				if _, err := ReadFile(p, Options{}); err != nil {
@@ -272,7 +262,7 @@ func BenchmarkReadCompressed(b *testing.B) {
 				}
 			}
 			b.StopTimer()
-			b.ReportMetric((cpuTime()-cpu0).Seconds()*1000/float64(b.N), "cpu-ms/op")
+			b.ReportMetric((fieldtest.ProcessCPU()-cpu0).Seconds()*1000/float64(b.N), "cpu-ms/op")
 			b.ReportMetric(float64(buf.Len())/(1<<20), "compressed-MB")
 		})
 	}

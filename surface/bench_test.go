@@ -41,7 +41,7 @@ func BenchmarkCutSphereTet(b *testing.B) {
 func benchmarkCut(b *testing.B, l *field.Locator) {
 	s := Sphere{Center: [3]float64{0.013, -0.007, 0.004}, Radius: 0.6, Res: Resolution{Facets: 100_000}}
 	b.ReportAllocs()
-	cpu0 := processCPU()
+	cpu0 := fieldtest.ProcessCPU()
 	b.ResetTimer()
 	var c *Cut
 	for i := 0; i < b.N; i++ {
@@ -51,7 +51,7 @@ func benchmarkCut(b *testing.B, l *field.Locator) {
 		}
 	}
 	sec := b.Elapsed().Seconds() / float64(b.N)
-	cpu := (processCPU() - cpu0).Seconds() / float64(b.N)
+	cpu := (fieldtest.ProcessCPU() - cpu0).Seconds() / float64(b.N)
 	b.ReportMetric(float64(c.Facets)/sec, "facets/s")
 	b.ReportMetric(float64(len(c.Pieces))/sec, "pieces/s")
 	b.ReportMetric(float64(len(c.Points))/sec, "points/s")

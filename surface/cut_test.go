@@ -25,10 +25,10 @@ func locator(t testing.TB, zones ...*field.Zone) *field.Locator {
 // facet normals.
 func checkCut(t *testing.T, l *field.Locator, c *Cut, warped bool) {
 	t.Helper()
-	var sum kahan
+	var sum field.CompensatedSum
 	moved := 0
 	for _, p := range c.Pieces {
-		sum.add(p.Area)
+		sum.Add(p.Area)
 		var w float64
 		for _, q := range c.Points[p.First : p.First+p.Count] {
 			w += q.W
@@ -43,8 +43,8 @@ func checkCut(t *testing.T, l *field.Locator, c *Cut, warped bool) {
 			t.Fatalf("piece weights %g, area %g", w, p.Area)
 		}
 	}
-	if math.Abs(sum.sum()-c.Area) > 1e-9*c.Area {
-		t.Errorf("%s: pieces cover %.15g of area %.15g", c.Spec, sum.sum(), c.Area)
+	if math.Abs(sum.Value()-c.Area) > 1e-9*c.Area {
+		t.Errorf("%s: pieces cover %.15g of area %.15g", c.Spec, sum.Value(), c.Area)
 	}
 	// In a warped hexahedron the simplices differ from the trilinear cell
 	// by a sliver; points there belong to the neighbour's trilinear cell.

@@ -213,7 +213,7 @@ type facetCover struct {
 // *CoverageError when a facet's pieces miss or exceed its area by more
 // than CoverageTol relative.
 func checkCover(spec string, dim int, total float64, cov []facetCover) error {
-	var unc, over kahan
+	var unc, over field.CompensatedSum
 	nUnc, nOver := 0, 0
 	var worstUnc, worstOver float64
 	var nearUnc, nearOver [3]float64
@@ -229,13 +229,13 @@ func checkCover(spec string, dim int, total float64, cov []facetCover) error {
 			at[k] = (c.moment[k] - c.mCov[k]) / d
 		}
 		if d > 0 {
-			unc.add(d)
+			unc.Add(d)
 			nUnc++
 			if d > worstUnc {
 				worstUnc, nearUnc = d, at
 			}
 		} else {
-			over.add(-d)
+			over.Add(-d)
 			nOver++
 			if -d > worstOver {
 				worstOver, nearOver = -d, at
@@ -244,10 +244,10 @@ func checkCover(spec string, dim int, total float64, cov []facetCover) error {
 	}
 	switch {
 	case nUnc > 0:
-		u := unc.sum()
-		return &CoverageError{Spec: spec, Dim: dim, Uncovered: u, Overlap: over.sum(), Fraction: u / total, Near: nearUnc, Facets: nUnc}
+		u := unc.Value()
+		return &CoverageError{Spec: spec, Dim: dim, Uncovered: u, Overlap: over.Value(), Fraction: u / total, Near: nearUnc, Facets: nUnc}
 	case nOver > 0:
-		o := over.sum()
+		o := over.Value()
 		return &CoverageError{Spec: spec, Dim: dim, Overlap: o, Fraction: o / total, Near: nearOver, Facets: nOver}
 	}
 	return nil

@@ -55,8 +55,8 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 		lo[k], hi[k] = lo[k]-pad, hi[k]+pad
 	}
 	c.cells = c.l.CellsInBox(lo, hi, c.cells[:0])
-	var covered kahan
-	var mom [3]kahan
+	var covered field.CompensatedSum
+	var mom [3]field.CompensatedSum
 	zones := c.l.Field().Zones
 	for _, ref := range c.cells {
 		if !c.reg.build(zones[ref.Zone], ref, c.dim, n, v[0]) {
@@ -78,21 +78,21 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 		for k, end := range c.ends {
 			poly, a := c.polys[start:end], c.areas[k]
 			start = end
-			covered.add(a)
+			covered.Add(a)
 			pc := centroid(poly)
 			if c.dim == 3 {
 				pc = polygonCentroid(poly, n)
 			}
 			for j := 0; j < 3; j++ {
-				mom[j].add(a * pc[j])
+				mom[j].Add(a * pc[j])
 			}
 			if err := c.emit(i, ref, poly, n, a, r); err != nil {
 				return err
 			}
 		}
 	}
-	cov.covered = covered.sum()
-	cov.mCov = [3]float64{mom[0].sum(), mom[1].sum(), mom[2].sum()}
+	cov.covered = covered.Value()
+	cov.mCov = [3]float64{mom[0].Value(), mom[1].Value(), mom[2].Value()}
 	return nil
 }
 

@@ -1,6 +1,10 @@
 package surface
 
-import "math"
+import (
+	"math"
+
+	"farforce/field"
+)
 
 // Facets is a tessellated closed surface: triangles in 3D (Dim 3) or
 // segments in 2D (Dim 2), given by indices into Verts (3 or 2 per facet).
@@ -48,16 +52,16 @@ func facetGeom(dim int, v [3][3]float64) (n [3]float64, area float64) {
 // Measure returns the total area (length in 2D) and the closure vector
 // Σ A_f n_f of the facets, summed in facet order with compensation.
 func (f *Facets) Measure() (area float64, closure [3]float64) {
-	var sa kahan
-	var sc [3]kahan
+	var sa field.CompensatedSum
+	var sc [3]field.CompensatedSum
 	for i := 0; i < f.Len(); i++ {
 		n, a := facetGeom(f.Dim, f.Facet(i))
-		sa.add(a)
+		sa.Add(a)
 		for k := range sc {
-			sc[k].add(a * n[k])
+			sc[k].Add(a * n[k])
 		}
 	}
-	return sa.sum(), [3]float64{sc[0].sum(), sc[1].sum(), sc[2].sum()}
+	return sa.Value(), [3]float64{sc[0].Value(), sc[1].Value(), sc[2].Value()}
 }
 
 // SignedVolume returns the volume (area in 2D) enclosed by the facets,
@@ -69,17 +73,17 @@ func (f *Facets) SignedVolume() float64 {
 		return 0
 	}
 	o := f.Verts[0]
-	var s kahan
+	var s field.CompensatedSum
 	for i := 0; i < f.Len(); i++ {
 		v := f.Facet(i)
 		a, b := sub(v[0], o), sub(v[1], o)
 		if f.Dim == 2 {
-			s.add((a[0]*b[1] - a[1]*b[0]) / 2)
+			s.Add((a[0]*b[1] - a[1]*b[0]) / 2)
 			continue
 		}
-		s.add(dot(a, cross(b, sub(v[2], o))) / 6)
+		s.Add(dot(a, cross(b, sub(v[2], o))) / 6)
 	}
-	return s.sum()
+	return s.Value()
 }
 
 // flip reverses the orientation of every facet.
@@ -96,18 +100,3 @@ func (f *Facets) orientOutward() {
 		f.flip()
 	}
 }
-
-// kahan is a compensated (Neumaier) running sum.
-type kahan struct{ s, c float64 }
-
-func (k *kahan) add(x float64) {
-	t := k.s + x
-	if math.Abs(k.s) >= math.Abs(x) {
-		k.c += (k.s - t) + x
-	} else {
-		k.c += (x - t) + k.s
-	}
-	k.s = t
-}
-
-func (k *kahan) sum() float64 { return k.s + k.c }

@@ -3,6 +3,8 @@ package surface
 import (
 	"fmt"
 	"math"
+
+	"farforce/field"
 )
 
 // flatFactor is the default facet edge of flat shapes in units of the
@@ -135,10 +137,10 @@ func edgeSamples(pts [][2]float64, z float64) func(yield func(p [3]float64) bool
 
 // perimeter returns the length of the closed contour through pts.
 func perimeter(pts [][2]float64) float64 {
-	var s kahan
+	var s field.CompensatedSum
 	for i := range pts {
 		a, b := pts[i], pts[(i+1)%len(pts)]
-		s.add(math.Hypot(b[0]-a[0], b[1]-a[1]))
+		s.Add(math.Hypot(b[0]-a[0], b[1]-a[1]))
 	}
-	return s.sum()
+	return s.Value()
 }

@@ -82,12 +82,12 @@ func TestCutConvergence(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		var v kahan
+		var v field.CompensatedSum
 		for _, q := range c.Points {
-			v.add(q.W * (q.X[0] - 0.01) * q.N[0])
+			v.Add(q.W * (q.X[0] - 0.01) * q.N[0])
 		}
 		want := 4 * math.Pi * R * R * R / 3
-		hs, es = append(hs, h), append(es, math.Abs(v.sum()-want)/want)
+		hs, es = append(hs, h), append(es, math.Abs(v.Value()-want)/want)
 	}
 	p := fitOrder(hs, es)
 	t.Logf("relative volume errors %.3g, order %.3f", es, p)

@@ -5,6 +5,7 @@ import (
 	"math"
 	"testing"
 
+	"farforce/field"
 	"farforce/field/fieldtest"
 )
 
@@ -44,21 +45,21 @@ func TestPlaneCut(t *testing.T) {
 		}
 		c.Closure = [3]float64{}
 		checkCut(t, l, c, false)
-		var w, y2z kahan
+		var w, y2z field.CompensatedSum
 		for _, q := range c.Points {
-			w.add(q.W)
+			w.Add(q.W)
 			if d := sub(q.N, tc.n); norm(d) > 1e-14 {
 				t.Fatalf("%s: normal %v, want %v", tc.spec, q.N, tc.n)
 			}
 			s1, s2 := p.Coords(q.X)
-			y2z.add(q.W * s1 * s1 * s2)
+			y2z.Add(q.W * s1 * s1 * s2)
 		}
-		if math.Abs(w.sum()-tc.area) > 1e-12*tc.area {
-			t.Errorf("%s: Σw = %.15g, want %g", tc.spec, w.sum(), tc.area)
+		if math.Abs(w.Value()-tc.area) > 1e-12*tc.area {
+			t.Errorf("%s: Σw = %.15g, want %g", tc.spec, w.Value(), tc.area)
 		}
 		want := (math.Pow(p.Max[0], 3) - math.Pow(p.Min[0], 3)) / 3 * (p.Max[1]*p.Max[1] - p.Min[1]*p.Min[1]) / 2
-		if math.Abs(y2z.sum()-want) > 1e-12 {
-			t.Errorf("%s: ∫y²z = %.15g, want %.15g", tc.spec, y2z.sum(), want)
+		if math.Abs(y2z.Value()-want) > 1e-12 {
+			t.Errorf("%s: ∫y²z = %.15g, want %.15g", tc.spec, y2z.Value(), want)
 		}
 	}
 }

@@ -1,14 +1,10 @@
-//go:build linux
-
 package main
 
 import (
 	"bytes"
-	"math"
 	"os"
 	"path/filepath"
 	"runtime"
-	"syscall"
 	"testing"
 	"time"
 
@@ -57,9 +53,9 @@ func BenchmarkScaleCutVsLoad(b *testing.B) {
 	for i := 0; i < b.N; i++ {
 		phase := func(k int, fn func()) {
 			runtime.GC()
-			c0 := scaleCPU()
+			c0 := fieldtest.ProcessCPU()
 			fn()
-			t[k] += scaleCPU() - c0
+			t[k] += fieldtest.ProcessCPU() - c0
 		}
 		var f *field.Field
 		var l *field.Locator
@@ -115,14 +111,7 @@ func BenchmarkScaleCutVsLoad(b *testing.B) {
 func scaleFile(b *testing.B, n int) string {
 	b.Helper()
 	z := fieldtest.BoxHex([3]float64{-1, -1, -1}, [3]float64{1, 1, 1}, [3]int{n, n, n})
-	fieldtest.SamplePoints(z, "velocity", 3, func(x [3]float64, dst []float64) {
-		dst[0] = 1 + 0.1*math.Sin(2*x[0])*math.Cos(x[1])
-		dst[1] = 0.1 * math.Cos(x[1]+x[2])
-		dst[2] = 0.05 * x[2] * x[0]
-	})
-	fieldtest.SamplePoints(z, "pressure", 1, func(x [3]float64, dst []float64) {
-		dst[0] = 0.5 * math.Exp(-x[0]*x[0]-x[1]*x[1]-x[2]*x[2])
-	})
+	fieldtest.SampleBenchFlow(z)
 	var buf bytes.Buffer
 	if err := readers.WriteVTK(&buf, z, readers.WriteOptions{Binary: true, Version: "4.2", Title: "scale benchmark"}); err != nil {
 		b.Fatal(err)
@@ -132,13 +121,4 @@ func scaleFile(b *testing.B, n int) string {
 		b.Fatal(err)
 	}
 	return path
-}
-
-// scaleCPU returns the CPU time (user plus system) of the whole process.
-func scaleCPU() time.Duration {
-	var ru syscall.Rusage
-	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
-		return 0
-	}
-	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
 }
