@@ -236,6 +236,12 @@ type FlowSampler struct {
 	kinMuT   bool
 	rs       ArrayID
 	rsComps  int // 0 (none), 6 or 9
+	// cached lists the point arrays whose node values a FlowCache
+	// gathers once per cell; slot[id] is the per-node offset of array id
+	// in that gather (-1: not cached), width the values per node.
+	cached []ArrayID
+	slot   []int
+	width  int
 }
 
 // quantitySource is a Quantity resolved against a Sampler.
@@ -245,12 +251,13 @@ type quantitySource struct {
 	value float64
 }
 
-func (q quantitySource) at(s *Sampler, st *site) float64 {
+// at returns the quantity at the site of c.
+func (q quantitySource) at(fs *FlowSampler, c *FlowCache) float64 {
 	if !q.named {
 		return q.value
 	}
 	var v [1]float64
-	s.valueAt(s.arrays[q.id], st, v[:])
+	fs.value(c, q.id, v[:])
 	return v[0]
 }
 
@@ -311,7 +318,40 @@ func NewFlowSampler(s *Sampler, m FlowMap) (*FlowSampler, error) {
 		}
 		fs.rsComps = s.Components(fs.rs)
 	}
+	fs.planCache()
 	return fs, nil
+}
+
+// maxCachedWidth bounds the values per node a FlowCache holds.
+const maxCachedWidth = 16
+
+// planCache chooses the point arrays whose node values FlowCache keeps:
+// every point array the flow reads, while they fit.
+func (fs *FlowSampler) planCache() {
+	s := fs.s
+	ids := append([]ArrayID{}, fs.vel...)
+	ids = append(ids, fs.p)
+	for _, q := range []quantitySource{fs.rho, fs.mu, fs.muT} {
+		if q.named {
+			ids = append(ids, q.id)
+		}
+	}
+	if fs.rsComps > 0 {
+		ids = append(ids, fs.rs)
+	}
+	fs.slot = make([]int, len(s.arrays))
+	for i := range fs.slot {
+		fs.slot[i] = -1
+	}
+	for _, id := range ids {
+		p := s.arrays[id]
+		if p.at != AtPoints || fs.slot[id] >= 0 || fs.width+p.comps > maxCachedWidth {
+			continue
+		}
+		fs.slot[id] = fs.width
+		fs.cached = append(fs.cached, id)
+		fs.width += p.comps
+	}
 }
 
 // prepareArray prepares the array called name on s for the quantity what
@@ -349,40 +389,75 @@ func resolveQuantity(s *Sampler, what string, q Quantity, required bool) (quanti
 // sampler interpolates from the cell and its local coordinates). Kinematic
 // viscosities are turned into dynamic ones with the local density.
 func (fs *FlowSampler) EvalFlow(at Location, x [3]float64, dst *FlowState) {
+	var c FlowCache
+	fs.EvalFlowCached(at, x, dst, &c)
+}
+
+// FlowCache holds what a FlowSampler gathers for one cell (node positions
+// and numbers, the recovered nodal gradients of the velocity), so that
+// consecutive evaluations in the same cell, such as the quadrature points
+// of one cut piece, gather it once. The zero value is empty and ready; a
+// cache belongs to one goroutine.
+type FlowCache struct {
+	fs      *FlowSampler
+	st      site
+	full    bool // st holds a gathered cell
+	hasGrad bool // grad holds the nodal velocity gradients of that cell
+	hasVals bool // vals holds the node values of the cached arrays
+	grad    [maxCellNodes * 9]float64
+	// vals holds, for each cached array of per-node offset o and comps
+	// components, its node values at vals[nn*o+k*comps+c] (nn nodes).
+	vals [maxCellNodes * maxCachedWidth]float64
+}
+
+// CachedFlowEvaluator is a FlowEvaluator that can reuse per-cell work
+// across consecutive calls through a caller-owned FlowCache, with results
+// bit-identical to EvalFlow.
+type CachedFlowEvaluator interface {
+	FlowEvaluator
+	EvalFlowCached(at Location, x [3]float64, dst *FlowState, c *FlowCache)
+}
+
+// EvalFlowCached is EvalFlow reusing c: when at lies in the cell of the
+// previous call made with c, the cell's nodes and nodal gradients are
+// taken from c instead of gathered again. The result is the same bits.
+func (fs *FlowSampler) EvalFlowCached(at Location, x [3]float64, dst *FlowState, c *FlowCache) {
 	s := fs.s
 	*dst = FlowState{}
-	var st site // one gather and shape evaluation for every array
-	s.site(at, &st)
+	st := &c.st
+	if c.fs != fs || !c.full || st.at.Zone != at.Zone || st.at.Cell != at.Cell {
+		s.site(at, st) // one gather for every array
+		c.fs, c.full, c.hasGrad, c.hasVals = fs, true, false, false
+	} else {
+		st.at, st.hasN = at, false
+	}
 	var val [9]float64
-	var grad [27]float64
+	var grad [9]float64
+	fs.velocityGradient(c, grad[:3*fs.velComps])
 	if len(fs.vel) == 1 {
-		s.valueAt(s.arrays[fs.vel[0]], &st, val[:fs.velComps])
-		s.gradientAt(GradientRecovered, s.arrays[fs.vel[0]], &st, grad[:3*fs.velComps])
-		for i := 0; i < fs.velComps; i++ {
-			dst.V[i] = val[i]
-			dst.GradV[i] = [3]float64{grad[3*i], grad[3*i+1], grad[3*i+2]}
-		}
+		fs.value(c, fs.vel[0], val[:fs.velComps])
 	} else {
 		for i, id := range fs.vel {
-			s.valueAt(s.arrays[id], &st, val[:1])
-			s.gradientAt(GradientRecovered, s.arrays[id], &st, grad[:3])
-			dst.V[i] = val[0]
-			dst.GradV[i] = [3]float64{grad[0], grad[1], grad[2]}
+			fs.value(c, id, val[i:i+1])
 		}
 	}
-	s.valueAt(s.arrays[fs.p], &st, val[:1])
+	for i := 0; i < fs.velComps; i++ {
+		dst.V[i] = val[i]
+		dst.GradV[i] = [3]float64{grad[3*i], grad[3*i+1], grad[3*i+2]}
+	}
+	fs.value(c, fs.p, val[:1])
 	dst.P = val[0]
-	dst.Rho = fs.rho.at(s, &st)
-	dst.Mu = fs.mu.at(s, &st)
+	dst.Rho = fs.rho.at(fs, c)
+	dst.Mu = fs.mu.at(fs, c)
 	if fs.kinMu {
 		dst.Mu *= dst.Rho
 	}
-	dst.MuT = fs.muT.at(s, &st)
+	dst.MuT = fs.muT.at(fs, c)
 	if fs.kinMuT {
 		dst.MuT *= dst.Rho
 	}
 	if fs.rsComps > 0 {
-		s.valueAt(s.arrays[fs.rs], &st, val[:fs.rsComps])
+		fs.value(c, fs.rs, val[:fs.rsComps])
 		dst.HasR = true
 		if fs.rsComps == 9 {
 			for i := 0; i < 3; i++ {
@@ -396,6 +471,68 @@ func (fs *FlowSampler) EvalFlow(at Location, x [3]float64, dst *FlowState) {
 			}
 		}
 	}
+}
+
+// value stores in dst the value of array id at the site of c: for a
+// cached point array Σ_k N_k f_k from the node values gathered into c once
+// per cell (the same bits as Sampler.valueAt), otherwise by valueAt.
+func (fs *FlowSampler) value(c *FlowCache, id ArrayID, dst []float64) {
+	s, st := fs.s, &c.st
+	o := fs.slot[id]
+	if o < 0 || !st.ok {
+		s.valueAt(s.arrays[id], st, dst)
+		return
+	}
+	nn := len(st.nodes)
+	if !c.hasVals {
+		for _, cid := range fs.cached {
+			p := s.arrays[cid]
+			data, w := p.data[st.at.Zone], p.comps
+			blk := c.vals[nn*fs.slot[cid]:]
+			for k, n := range st.nodes {
+				copy(blk[k*w:(k+1)*w], data[int(n)*w:int(n)*w+w])
+			}
+		}
+		c.hasVals = true
+	}
+	w := s.arrays[id].comps
+	combineNodal(st.shape(), nn, c.vals[nn*o:nn*(o+w)], dst[:w])
+}
+
+// velocityGradient stores in dst[3i+j] = ∂V_i/∂x_j at the site of c: for
+// point data Σ_k N_k G_k with the recovered nodal gradients G_k, gathered
+// into c once per cell; for cell data the cell's reconstruction.
+func (fs *FlowSampler) velocityGradient(c *FlowCache, dst []float64) {
+	s, st := fs.s, &c.st
+	atCells := false
+	for _, id := range fs.vel {
+		atCells = atCells || s.arrays[id].at == AtCells
+	}
+	if !st.ok || atCells {
+		if len(fs.vel) == 1 {
+			s.gradientAt(GradientRecovered, s.arrays[fs.vel[0]], st, dst)
+			return
+		}
+		for i, id := range fs.vel {
+			s.gradientAt(GradientRecovered, s.arrays[id], st, dst[3*i:3*i+3])
+		}
+		return
+	}
+	nn, w := len(st.nodes), len(dst)
+	if !c.hasGrad {
+		// Node-major over all velocity arrays: node k holds w values.
+		var one [maxCellNodes * 9]float64
+		for i, id := range fs.vel {
+			p := s.arrays[id]
+			pw := 3 * p.comps
+			s.nodeGradients(p, st, one[:nn*pw])
+			for k := 0; k < nn; k++ {
+				copy(c.grad[k*w+i*pw:k*w+(i+1)*pw], one[k*pw:(k+1)*pw])
+			}
+		}
+		c.hasGrad = true
+	}
+	combineNodal(st.shape(), nn, c.grad[:nn*w], dst)
 }
 
 func joinInts(v []int) string {

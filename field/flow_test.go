@@ -1,10 +1,12 @@
 package field_test
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"math/rand/v2"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -314,4 +316,74 @@ func BenchmarkEvalFlow(b *testing.B) {
 		}
 		b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "points/s")
 	})
+}
+
+// TestEvalFlowCachedSameBits checks that evaluating through a FlowCache,
+// with runs of points in one cell and caches shared between two samplers,
+// gives exactly the bits of EvalFlow (the cache must only save work), for
+// vector and scalar velocities, point and cell data, named density and
+// eddy viscosity, and a Reynolds stress.
+func TestEvalFlowCachedSameBits(t *testing.T) {
+	meshes := []struct {
+		name  string
+		zone  *field.Zone
+		comps int
+	}{
+		{"hex", fieldtest.BoxHex([3]float64{0, 0, 0}, [3]float64{1, 2, 1.5}, [3]int{3, 4, 3}), 3},
+		{"tet", fieldtest.BoxTet([3]float64{-1, 0, 0}, [3]float64{1, 1, 1}, [3]int{3, 2, 2}), 3},
+		{"quad", fieldtest.RectQuad([2]float64{0, 0}, [2]float64{2, 1}, [2]int{4, 3}), 2},
+	}
+	for _, ms := range meshes {
+		fieldtest.Perturb(ms.zone, 0.05, 3)
+		linearZone(ms.zone, ms.comps)
+		// A curved velocity, so that nodal gradients differ from node to node.
+		fieldtest.SamplePoints(ms.zone, "Uq", ms.comps, func(x [3]float64, d []float64) {
+			for i := range d {
+				d[i] = x[0]*x[1] + float64(i)*x[0]*x[0] - x[2]*x[2]
+			}
+		})
+		fieldtest.SampleCells(ms.zone, "Uc", ms.comps, func(x [3]float64, d []float64) { v := linVel(x); copy(d, v[:ms.comps]) })
+		f := &field.Field{Zones: []*field.Zone{ms.zone}}
+		loc, err := field.NewLocator(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		lo, hi := f.Bounds()
+		rng := rand.New(rand.NewPCG(5, 6))
+		var locs []field.Location
+		for len(locs) < 300 {
+			var x [3]float64
+			for d := 0; d < 3; d++ {
+				x[d] = lo[d] + rng.Float64()*(hi[d]-lo[d])
+			}
+			if at, ok := loc.Locate(x); ok {
+				locs = append(locs, at)
+			}
+		}
+		slices.SortStableFunc(locs, func(a, b field.Location) int { return cmp.Compare(a.Cell, b.Cell) })
+		for _, vel := range [][]string{{"U"}, {"Uq"}, {"Uc"}, []string{"u", "v", "w"}[:ms.comps]} {
+			m := field.FlowMap{Velocity: vel, Pressure: "p", Density: field.Quantity{Name: "rho"},
+				Viscosity: field.Quantity{Value: 1.8e-5}, EddyViscosity: field.Quantity{Name: "nut"}, EddyKinematic: true,
+				ReynoldsStress: "R"}
+			a, errA := field.NewFlowSampler(field.NewSampler(loc), m)
+			m.Pressure, m.ReynoldsStress = "pc", ""
+			b, errB := field.NewFlowSampler(field.NewSampler(loc), m)
+			if errA != nil || errB != nil {
+				t.Fatal(errA, errB)
+			}
+			var cache field.FlowCache
+			for i, at := range locs {
+				fs := a
+				if i%7 == 3 { // switch samplers now and then on one cache
+					fs = b
+				}
+				var want, got field.FlowState
+				fs.EvalFlow(at, [3]float64{}, &want)
+				fs.EvalFlowCached(at, [3]float64{}, &got, &cache)
+				if got != want {
+					t.Fatalf("%s %v point %d (cell %d): cached %+v, want %+v", ms.name, vel, i, at.Cell, got, want)
+				}
+			}
+		}
+	}
 }

@@ -330,16 +330,38 @@ func (s *Sampler) gradientAt(m GradientMethod, p *prepared, st *site, dst []floa
 		}
 		return
 	}
-	N := st.shape()
-	var G [3 * maxInlineComps]float64
+	w := 3 * p.comps
+	var G [maxCellNodes * 3 * maxInlineComps]float64
 	buf := G[:]
-	if 3*p.comps > len(buf) {
-		buf = make([]float64, 3*p.comps)
+	if len(st.nodes)*w > len(buf) {
+		buf = make([]float64, len(st.nodes)*w)
 	}
+	s.nodeGradients(p, st, buf)
+	combineNodal(st.shape(), len(st.nodes), buf, dst[:w])
+}
+
+// nodeGradients stores in G[k*w:(k+1)*w] (w = 3*comps) the recovered
+// gradient of array p at node k of the cell of site st.
+func (s *Sampler) nodeGradients(p *prepared, st *site, G []float64) {
+	w := 3 * p.comps
 	for k, n := range st.nodes {
-		for i, v := range s.nodeGradient(p, int(st.at.Zone), n, buf) {
-			dst[i] += N[k] * v
+		g := G[k*w : (k+1)*w]
+		if src := s.nodeGradient(p, int(st.at.Zone), n, g); &src[0] != &g[0] {
+			copy(g, src)
 		}
+	}
+}
+
+// combineNodal sets dst[i] = Σ_k N_k G[k*len(dst)+i] over the nn nodes,
+// adding in node order (the same bits wherever it is called from).
+func combineNodal(N *[maxCellNodes]float64, nn int, G, dst []float64) {
+	w := len(dst)
+	for i := range dst {
+		v := 0.0
+		for k := 0; k < nn; k++ {
+			v += N[k] * G[k*w+i]
+		}
+		dst[i] = v
 	}
 }
 

@@ -137,15 +137,29 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 	if opt.Plain {
 		vinf = Vec3{}
 	}
+	var cache field.FlowCache
+	// run holds plain sums over the current run of consecutive points in
+	// one cell (a piece's quadrature points), added to acc when the run
+	// ends: one compensated addition per run instead of per point.
+	var run [nSums]float64
+	flush := func() {
+		for k, v := range run {
+			acc[k].Add(v)
+		}
+		run = [nSums]float64{}
+	}
 	for i := lo; i < hi; i++ {
 		q := &c.Points[i]
+		if i > lo && q.At.Ref() != c.Points[i-1].At.Ref() {
+			flush()
+		}
 		// Weights are not required to be positive: clipping can leave
 		// sliver pieces whose rule has weights of rounding size and
 		// either sign.
 		if !finite(q.W) || !finiteVec(q.X) || !finiteVec(q.N) {
 			return fmt.Errorf("%w: surface %q: quadrature point %d has a non-finite position, normal or weight (%g)", ErrCut, c.Spec, i, q.W)
 		}
-		flow.EvalFlow(q.At, q.X, st)
+		evalFlow(flow, q, st, &cache)
 		if name, v, ok := checkState(st); !ok {
 			return &ValueError{Spec: c.Spec, Point: i, X: q.X, Cell: q.At.Ref(), Quantity: name, Value: v}
 		}
@@ -155,8 +169,8 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 		}
 		w, n := q.W, q.N
 		vn := dot(st.V, n)
-		acc[sMass].Add(st.Rho * vn * w)
-		acc[sAbs].Add(st.Rho * math.Abs(vn) * w)
+		run[sMass] += st.Rho * vn * w
+		run[sAbs] += st.Rho * math.Abs(vn) * w
 
 		var mom, momPlain, prs, vis, rey Vec3
 		if !opt.NoConvection {
@@ -182,17 +196,18 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 			}
 		}
 		for k := 0; k < 3; k++ {
-			acc[sMom+k].Add(mom[k])
-			acc[sPrs+k].Add(prs[k])
-			acc[sVis+k].Add(vis[k])
-			acc[sRey+k].Add(rey[k])
+			run[sMom+k] += mom[k]
+			run[sPrs+k] += prs[k]
+			run[sVis+k] += vis[k]
+			run[sRey+k] += rey[k]
 		}
 		for t, v := range [4]Vec3{cross(r, momPlain), cross(r, prs), cross(r, vis), cross(r, rey)} {
 			for k := 0; k < 3; k++ {
-				acc[sMom2+3*t+k].Add(v[k])
+				run[sMom2+3*t+k] += v[k]
 			}
 		}
 	}
+	flush()
 	return nil
 }
 
@@ -249,4 +264,15 @@ func sub(a, b Vec3) Vec3 { return Vec3{a[0] - b[0], a[1] - b[1], a[2] - b[2]} }
 
 func cross(a, b Vec3) Vec3 {
 	return Vec3{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
+}
+
+// evalFlow evaluates flow at quadrature point q, through cache when the
+// evaluator can reuse per-cell work (consecutive points of one piece share
+// their cell).
+func evalFlow(flow field.FlowEvaluator, q *surface.QuadPoint, st *field.FlowState, cache *field.FlowCache) {
+	if cf, ok := flow.(field.CachedFlowEvaluator); ok {
+		cf.EvalFlowCached(q.At, q.X, st, cache)
+		return
+	}
+	flow.EvalFlow(q.At, q.X, st)
 }
