@@ -345,6 +345,64 @@ func TestMalformedUnknownKeywordWarns(t *testing.T) {
 	}
 }
 
+// lyingDir holds compressed files whose container lies about the
+// decompressed size; they are written by testdata/malformed/make_lying.py
+// (see its docstring). Each declares 10^7 float points (240 MB as float64)
+// in a 151-byte stream holding 12.
+const lyingDir = "testdata/malformed"
+
+// lyingCases: the gzip trailer claims 4 GiB - 1 (RFC 1952 ISIZE), the zstd
+// frame 2^40 bytes (RFC 8878 Frame_Content_Size). The decompressors find
+// the lie only when the data ends: the gzip ISIZE check after the 151
+// bytes; klauspost/compress zstd checks the content size when the frame
+// ends, before delivering its last block (the data), hence byte 103, where
+// the header block ends.
+var lyingCases = []malformedCase{
+	{"lying_isize.vtk.gz", 0, nil, 0, 151,
+		`lying_isize.vtk.gz: byte 151: expected more data, found a read error (gzip: invalid checksum)`},
+	{"lying_fcs.vtk.zst", 0, nil, 0, 103,
+		`lying_fcs.vtk.zst: byte 103: expected more data, found a read error (frame size does not match size on stream)`},
+}
+
+// TestMalformedLyingContainer reads the lying files with the default
+// Options.MaxBytes (64 GiB), so that only the reader's own cap on a size
+// hint (1032 decompressed bytes per compressed byte, deflate's largest
+// expansion) stands between the claim and an allocation of the declared
+// 240 MB. Through ReadFile and a bytes.Reader (hint read) and a plain
+// io.Reader (no hint), each read must give the exact error and allocate
+// less than 4 MB: the reader's buffers shrink to what the capped hint
+// allows (a few hundred KB), the first step of a growing array is 64 Ki
+// values (512 KB) and the decoders keep a window of at most 1 MiB.
+func TestMalformedLyingContainer(t *testing.T) {
+	for _, c := range lyingCases {
+		path := filepath.Join(lyingDir, c.file)
+		b, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, how := range []string{"ReadFile", "bytes.Reader", "io.Reader"} {
+			t.Run(c.file+"/"+how, func(t *testing.T) {
+				var m0, m1 runtime.MemStats
+				runtime.GC()
+				runtime.ReadMemStats(&m0)
+				switch how {
+				case "ReadFile":
+					_, err = readers.ReadFile(path, readers.Options{Workers: 1})
+				case "bytes.Reader":
+					_, err = readers.ReadVTK(bytes.NewReader(b), c.file, readers.Options{Workers: 1})
+				default:
+					_, err = readers.ReadVTK(struct{ io.Reader }{bytes.NewReader(b)}, c.file, readers.Options{Workers: 1})
+				}
+				runtime.ReadMemStats(&m1)
+				mfCheck(t, err, c)
+				if d := m1.TotalAlloc - m0.TotalAlloc; d > 4<<20 {
+					t.Errorf("allocated %d bytes (limit 4 MB)", d)
+				}
+			})
+		}
+	}
+}
+
 // TestMalformedCorpusCovered makes sure every file of the corpus is checked
 // by one of the tests above.
 func TestMalformedCorpusCovered(t *testing.T) {
@@ -355,10 +413,14 @@ func TestMalformedCorpusCovered(t *testing.T) {
 	for _, f := range mfBoundedFiles {
 		seen[f] = true
 	}
+	for _, c := range lyingCases {
+		seen[c.file] = true
+	}
 	m, _ := filepath.Glob(filepath.Join(malformedDir, "*"))
-	for _, p := range m {
-		if b := filepath.Base(p); !seen[b] && b != "README.md" {
-			t.Errorf("%s is not checked by any test", b)
+	l, _ := filepath.Glob(filepath.Join(lyingDir, "*"))
+	for _, p := range append(m, l...) {
+		if b := filepath.Base(p); !seen[b] && b != "README.md" && !strings.HasSuffix(b, ".py") {
+			t.Errorf("%s is not checked by any test", p)
 		}
 	}
 }

@@ -109,7 +109,11 @@ func ReadFiles(paths []string, opt Options) (*field.Field, error) {
 // one zone named filepath.Base(name); name is also used in error
 // messages. The stream size is known for *bytes.Reader, *strings.Reader
 // and regular *os.File; otherwise declared counts are checked against
-// Options.MaxBytes and destination slices grow as data arrives.
+// Options.MaxBytes and destination slices grow as data arrives. For gzip
+// and zstd input of known compressed size, the decompressed size the
+// container records (gzip ISIZE, zstd Frame_Content_Size), capped at 1032
+// bytes per compressed byte and Options.MaxBytes, lets slices that fit in
+// it be allocated in one piece; it never decides an error.
 func ReadVTK(r io.Reader, name string, opt Options) (*field.Field, error) {
 	size := int64(-1)
 	switch v := r.(type) {
@@ -130,10 +134,12 @@ func ReadVTK(r io.Reader, name string, opt Options) (*field.Field, error) {
 // read sniffs the container and parses the VTK stream inside it.
 func read(r io.Reader, name string, size int64, opt Options) (*field.Field, error) {
 	br := bufio.NewReaderSize(r, 64<<10)
-	head, _ := br.Peek(4)
+	head, _ := br.Peek(zstd.HeaderMaxSize)
 	var src io.Reader = br
+	hint := int64(-1)
 	switch {
 	case bytes.HasPrefix(head, magicGzip):
+		hint = sizeHint(r, head, size, true, opt.maxBytes())
 		zr, err := gzip.NewReader(br)
 		if err != nil {
 			return nil, &Error{File: name, Expected: "a gzip stream", Found: "a corrupt gzip header", Err: err}
@@ -143,6 +149,7 @@ func read(r io.Reader, name string, size int64, opt Options) (*field.Field, erro
 		defer ra.Close()
 		src, size = ra, -1
 	case bytes.HasPrefix(head, magicZstd):
+		hint = sizeHint(r, head, size, false, opt.maxBytes())
 		zr, err := zstd.NewReader(br, zstd.WithDecoderConcurrency(1), zstd.WithDecoderMaxMemory(uint64(opt.maxBytes())))
 		if err != nil {
 			return nil, &Error{File: name, Expected: "a zstd stream", Found: "a corrupt zstd header", Err: err}
@@ -156,6 +163,7 @@ func read(r io.Reader, name string, size int64, opt Options) (*field.Field, erro
 		return nil, &Error{File: name, Expected: fmt.Sprintf("at most %d bytes (Options.MaxBytes)", opt.maxBytes()), Found: fmt.Sprintf("%d bytes", size), Err: ErrTooLarge}
 	}
 	s := newScanner(src, name, size, opt)
+	s.hint = hint
 	if f, ok, err := readFFCGIf(s, opt); ok {
 		return f, err
 	}
@@ -186,8 +194,13 @@ type aheadChunk struct {
 const (
 	aheadBuffers = 4
 	aheadSize    = 1 << 20
+	aheadMin     = 64 << 10
 )
 
+// newReadahead starts decompressing r into aheadBuffers recycled buffers
+// of up to aheadSize bytes. Buffers are made as they are first needed, at
+// most 8 times the bytes decompressed so far (at least aheadMin), so that a
+// short stream costs little.
 func newReadahead(r io.Reader) *readahead {
 	ra := &readahead{
 		full:   make(chan aheadChunk, aheadBuffers),
@@ -196,10 +209,11 @@ func newReadahead(r io.Reader) *readahead {
 		exited: make(chan struct{}),
 	}
 	for range aheadBuffers {
-		ra.free <- make([]byte, aheadSize)
+		ra.free <- nil
 	}
 	go func() {
 		defer close(ra.exited)
+		total := 0
 		for {
 			var b []byte
 			select {
@@ -207,6 +221,10 @@ func newReadahead(r io.Reader) *readahead {
 			case <-ra.done:
 				return
 			}
+			if size := min(aheadSize, max(aheadMin, 8*total)); cap(b) < size {
+				b = make([]byte, size)
+			}
+			b = b[:cap(b)]
 			n := 0
 			var err error
 			for n < len(b) && err == nil {
@@ -214,6 +232,7 @@ func newReadahead(r io.Reader) *readahead {
 				k, err = r.Read(b[n:])
 				n += k
 			}
+			total += n
 			ra.full <- aheadChunk{b[:n], err}
 			if err != nil {
 				return

@@ -61,21 +61,45 @@ func (f *intSink) putBytes(k int, src []byte, t dtype, le bool) (int, *Error) {
 }
 
 // growTo returns d resliced to length n (n >= len(d)) or d unchanged when
-// it is already that long. A new backing array at least doubles the
-// capacity, starts at 64 Ki values and never exceeds total, the count
-// the stream declared and the scanner already checked.
+// it is already that long. A new backing array gets stepCap(n, total)
+// values, total being the count the stream declared and the scanner
+// already checked.
 func growTo[T float64 | int32](d []T, n, total int) []T {
 	if n <= len(d) {
 		return d
 	}
 	if n > cap(d) {
-		c := max(2*cap(d), n, 1<<16)
-		c = min(c, total)
-		nd := make([]T, len(d), c)
+		nd := make([]T, len(d), stepCap(n, total))
 		copy(nd, d)
 		d = nd
 	}
 	return d[:n]
+}
+
+// Capacity steps of a block whose declared count is not backed by a known
+// stream size: total/growStep^k, at least minGrow values.
+const (
+	growStep = 8
+	minGrow  = 1 << 16
+)
+
+// stepCap returns the capacity to allocate for need of total values
+// (need <= total) when the stream cannot vouch for total: the smallest of
+// total, total/8, total/64, ... that holds need values and minGrow.
+//
+// The steps are fixed by total, so the last one before total is at most
+// total/8 and all the arrays given up on the way (with the first one of
+// minGrow values) sum to at most total/7 + minGrow: a block that arrives
+// whole allocates little more than 8/7 of its size. Each step is
+// at most 8 times the previous one, which the values already read filled,
+// so a count that the data does not back costs at most 8 times the values
+// it really delivered.
+func stepCap(need, total int) int {
+	c := total
+	for c/growStep >= max(need, minGrow) {
+		c /= growStep
+	}
+	return c
 }
 
 // budget checks that n values of t can still be in the stream and
@@ -84,18 +108,7 @@ func (s *scanner) budget(n int64, t dtype, sec, what string) (int, error) {
 	if n < 0 {
 		return 0, s.errAt(sec, "a non-negative count", fmt.Sprint(n), errSyntax)
 	}
-	var need int64
-	if s.ascii {
-		need = 2*n - 1
-		if n > 1<<61 {
-			need = math.MaxInt64
-		}
-	} else {
-		need = t.byteLen(n)
-		if need < 0 {
-			need = math.MaxInt64
-		}
-	}
+	need := s.blockBytes(n, t)
 	if need > s.remaining() {
 		return 0, s.tooBig(sec, fmt.Sprintf("%d %s", n, what), need)
 	}
@@ -105,14 +118,33 @@ func (s *scanner) budget(n int64, t dtype, sec, what string) (int, error) {
 	return int(n), nil
 }
 
-// initialCap is the capacity to allocate for n values: all of them when
-// the stream size is known (the budget check has bounded n), else a
-// modest start that grows as data arrives.
-func (s *scanner) initialCap(n int) int {
-	if s.sized() {
+// blockBytes returns the fewest bytes n values of t take in the stream:
+// 2n-1 in ASCII (one digit and one separator each), their binary size
+// otherwise; math.MaxInt64 on overflow.
+func (s *scanner) blockBytes(n int64, t dtype) int64 {
+	if s.ascii {
+		if n > 1<<61 {
+			return math.MaxInt64
+		}
+		return 2*n - 1
+	}
+	if b := t.byteLen(n); b >= 0 {
+		return b
+	}
+	return math.MaxInt64
+}
+
+// initialCap is the capacity to allocate for n values of t: all of them
+// when the stream size is known (the budget check has bounded n) or when
+// the size hint of a compressed stream covers their bytes, else at most
+// minGrow, from which the slice grows in steps as data arrives (stepCap).
+// Bit arrays never follow the hint: at 64 bytes of float64 per byte of
+// data, a hinted bit array would let a lying container claim too much.
+func (s *scanner) initialCap(n int, t dtype) int {
+	if s.sized() || (t.kind != kBit && s.hinted(s.blockBytes(int64(n), t))) {
 		return n
 	}
-	return min(n, 1<<16)
+	return min(n, minGrow)
 }
 
 // readFloats reads n values of type t as float64.
@@ -124,7 +156,7 @@ func (s *scanner) readFloats(n int64, t dtype, sec, what string) ([]float64, err
 	if err != nil {
 		return nil, err
 	}
-	f := &floatSink{d: make([]float64, 0, s.initialCap(m)), total: m}
+	f := &floatSink{d: make([]float64, 0, s.initialCap(m, t)), total: m}
 	if err := s.readBlock(m, t, sec, what, f); err != nil {
 		return nil, err
 	}
@@ -143,7 +175,7 @@ func (s *scanner) readInts(n int64, t dtype, sec, what string) ([]int32, error) 
 	if m > math.MaxInt32 {
 		return nil, s.errAt(sec, fmt.Sprintf("%d %s", n, what), "more than 2^31-1 indices", ErrTooLarge)
 	}
-	f := &intSink{d: make([]int32, 0, s.initialCap(m)), total: m}
+	f := &intSink{d: make([]int32, 0, s.initialCap(m, t)), total: m}
 	if err := s.readBlock(m, t, sec, what, f); err != nil {
 		return nil, err
 	}

@@ -28,6 +28,7 @@ type scanner struct {
 	ascii    bool  // positions are reported as lines
 	eof      bool
 	size     int64 // exact stream size when known, else -1
+	hint     int64 // untrusted estimate of the stream size, else -1 (sizeHint)
 	max      int64 // Options.MaxBytes
 	workers  int
 	le       bool // binary data found to be little-endian
@@ -46,12 +47,18 @@ func newScanner(r io.Reader, name string, size int64, opt Options) *scanner {
 	if size >= 0 && size < int64(start) {
 		start = int(size) + 64
 	}
-	return &scanner{name: name, r: r, buf: make([]byte, start), maxBuf: n, line: 1, size: size, max: opt.maxBytes(), workers: opt.workers()}
+	return &scanner{name: name, r: r, buf: make([]byte, start), maxBuf: n, line: 1, size: size, hint: -1, max: opt.maxBytes(), workers: opt.workers()}
 }
 
 // want enlarges the buffer, up to maxBuf, for a block of about n bytes.
-// The buffer starts small so that small files cost little.
+// The buffer starts small so that small files cost little. In a stream of
+// unknown size it grows with the data, to at most 8 times the bytes read
+// so far (at least 64 KiB), so that a declared block the data does not
+// back cannot reserve the whole buffer.
 func (s *scanner) want(n int) {
+	if s.size < 0 {
+		n = int(min(int64(n), max(8*(s.base+int64(s.end)), 64<<10)))
+	}
 	if n <= len(s.buf) || len(s.buf) >= s.maxBuf {
 		return
 	}
@@ -86,6 +93,13 @@ func (s *scanner) remaining() int64 {
 // sized reports whether the stream size is known exactly, so that
 // destination slices may be allocated in one piece after the budget check.
 func (s *scanner) sized() bool { return s.size >= 0 }
+
+// hinted reports whether a block of need bytes fits in what the size hint
+// says is left of the stream. The hint is untrusted but capped (sizeHint),
+// so it may size an allocation, never decide an error.
+func (s *scanner) hinted(need int64) bool {
+	return s.hint >= 0 && need >= 0 && need <= s.hint-s.offset()
+}
 
 // errAt returns a positioned error at the current position.
 func (s *scanner) errAt(sec, expected, found string, err error) *Error {
