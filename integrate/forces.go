@@ -159,7 +159,7 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 		if !finite(q.W) || !finiteVec(q.X) || !finiteVec(q.N) {
 			return fmt.Errorf("%w: surface %q: quadrature point %d has a non-finite position, normal or weight (%g)", ErrCut, c.Spec, i, q.W)
 		}
-		evalFlow(flow, q, st, &cache)
+		evalFlow(flow, q.At, q.X, st, &cache)
 		if name, v, ok := checkState(st); !ok {
 			return &ValueError{Spec: c.Spec, Point: i, X: q.X, Cell: q.At.Ref(), Quantity: name, Value: v}
 		}
@@ -266,13 +266,13 @@ func cross(a, b Vec3) Vec3 {
 	return Vec3{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
 }
 
-// evalFlow evaluates flow at quadrature point q, through cache when the
+// evalFlow evaluates flow at x (located at at), through cache when the
 // evaluator can reuse per-cell work (consecutive points of one piece share
-// their cell).
-func evalFlow(flow field.FlowEvaluator, q *surface.QuadPoint, st *field.FlowState, cache *field.FlowCache) {
+// their cell); the result is the same either way.
+func evalFlow(flow field.FlowEvaluator, at field.Location, x [3]float64, st *field.FlowState, cache *field.FlowCache) {
 	if cf, ok := flow.(field.CachedFlowEvaluator); ok {
-		cf.EvalFlowCached(q.At, q.X, st, cache)
+		cf.EvalFlowCached(at, x, st, cache)
 		return
 	}
-	flow.EvalFlow(q.At, q.X, st)
+	flow.EvalFlow(at, x, st)
 }

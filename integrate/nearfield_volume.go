@@ -60,6 +60,7 @@ func NearFieldVolume(l *field.Locator, flow field.FlowEvaluator, faces []field.B
 	var fp, ff, mo [3]field.CompensatedSum
 	var area field.CompensatedSum
 	var st field.FlowState
+	var cache field.FlowCache
 	var pts []facePoint
 	for fi, fc := range faces {
 		if fc.Cell.Zone < 0 || int(fc.Cell.Zone) >= len(f.Zones) || fc.Cell.Cell < 0 || int(fc.Cell.Cell) >= f.Zones[fc.Cell.Zone].NumCells() {
@@ -79,7 +80,7 @@ func NearFieldVolume(l *field.Locator, flow field.FlowEvaluator, faces []field.B
 				return res, fmt.Errorf("%w: face %d of zone %d cell %d: quadrature point (%g, %g, %g) is not in the cell",
 					ErrWall, fi, fc.Cell.Zone, fc.Cell.Cell, q.x[0], q.x[1], q.x[2])
 			}
-			flow.EvalFlow(loc, x, &st)
+			evalFlow(flow, loc, x, &st, &cache)
 			if name, v, ok := checkState(&st); !ok {
 				return res, &ValueError{Spec: "wall", Point: fi, X: x, Cell: fc.Cell, Quantity: name, Value: v}
 			}

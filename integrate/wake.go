@@ -235,9 +235,10 @@ func wakeSums(c *surface.Cut, flow field.FlowEvaluator, opt *WakeOptions) (wakeA
 	partial := make([]wakeAcc, nChunks)
 	err := forChunks(nChunks, opt.Workers, func(k int) error {
 		var st field.FlowState
+		var cache field.FlowCache
 		for i := k * ChunkSize; i < min((k+1)*ChunkSize, n); i++ {
 			q := &c.Points[i]
-			flow.EvalFlow(q.At, q.X, &st)
+			evalFlow(flow, q.At, q.X, &st, &cache)
 			if name, v, ok := checkState(&st); !ok {
 				return &ValueError{Spec: c.Spec, Point: i, X: q.X, Cell: q.At.Ref(), Quantity: name, Value: v}
 			}

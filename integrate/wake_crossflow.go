@@ -97,9 +97,10 @@ func Crossflow(g *surface.PlaneGrid, flow field.FlowEvaluator, opt WakeOptions) 
 	spec := g.Plane.String()
 	err = forChunks(n2, opt.Workers, func(j int) error {
 		var st field.FlowState
+		var cache field.FlowCache
 		for i := 0; i < n1; i++ {
 			k := j*n1 + i
-			flow.EvalFlow(g.At[k], g.X[k], &st)
+			evalFlow(flow, g.At[k], g.X[k], &st, &cache)
 			if name, val, ok := checkState(&st); !ok {
 				return &ValueError{Spec: spec, Point: k, X: g.X[k], Cell: g.At[k].Ref(), Quantity: name, Value: val}
 			}
