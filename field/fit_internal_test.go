@@ -3,6 +3,7 @@ package field
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 )
 
@@ -55,6 +56,77 @@ func TestFitReproducesQuadratic(t *testing.T) {
 	}
 }
 
+// Exact: the gradient rows of the operator (first = 1, as node operators
+// keep them) applied to samples of a quadratic give its linear
+// coefficients, to rounding (Golub & Van Loan 2013, §5.3), and they are
+// the same bits as those rows kept from the constant one on; also for the
+// linear fit (degree 1), whose operator is formed whole (lsqOperator), on
+// samples of a linear function.
+func TestFitOperatorGradientRows(t *testing.T) {
+	rng := rand.New(rand.NewPCG(73, 74))
+	var w fitWork
+	for trial := 0; trial < 50; trial++ {
+		pts, vals, q := lattice27(rng)
+		deg := 2
+		if trial%2 == 1 { // the linear part only
+			deg = 1
+			for i, x := range pts {
+				vals[i] = q[0] + q[1]*x[0] + q[2]*x[1] + q[3]*x[2]
+			}
+		}
+		one := [3]float64{1, 1, 1}
+		grad, ok1 := fitOperator(3, deg, 1, 4, [3]float64{}, one, pts, wellPosed, &w)
+		all, ok2 := fitOperator(3, deg, 0, 4, [3]float64{}, one, pts, wellPosed, &w)
+		if !ok1 || !ok2 {
+			t.Fatal("well-posed stencil rejected")
+		}
+		m := len(pts)
+		for tm := 1; tm < 4; tm++ {
+			c := 0.0
+			for i := range pts {
+				g, a := grad.coef[(tm-1)*m+i], all.coef[tm*m+i]
+				if math.Float64bits(g) != math.Float64bits(a) {
+					t.Fatalf("term %d sample %d: %v with first = 1, %v with first = 0", tm, i, g, a)
+				}
+				c += g * vals[i]
+			}
+			if math.Abs(c-q[tm]) > 1e-12 {
+				t.Fatalf("term %d: operator %v, want %v", tm, c, q[tm])
+			}
+		}
+	}
+}
+
+// reflectColumns must give the bits of reflect applied to each column in
+// turn (the Householder update x - 2v(vᵀx)/(vᵀv), Golub & Van Loan 2013,
+// §5.1.4), for any number of columns.
+func TestReflectColumnsMatchesReflect(t *testing.T) {
+	rng := rand.New(rand.NewPCG(75, 76))
+	const m = 13
+	for k := 0; k <= 9; k++ {
+		v := make([]float64, m)
+		vn := 0.0
+		for i := range v {
+			v[i] = rng.NormFloat64()
+			vn += v[i] * v[i]
+		}
+		x := make([]float64, 2+k*m)
+		for i := range x {
+			x[i] = rng.NormFloat64()
+		}
+		want := slices.Clone(x)
+		for c := 0; c < k; c++ {
+			reflect(v, vn, want[2+c*m:2+(c+1)*m])
+		}
+		reflectColumns(v, vn, x, 2, m, k)
+		for i := range x {
+			if math.Float64bits(x[i]) != math.Float64bits(want[i]) {
+				t.Fatalf("k = %d: entry %d is %v, want %v", k, i, x[i], want[i])
+			}
+		}
+	}
+}
+
 func BenchmarkFitDirect(b *testing.B) {
 	pts, vals, _ := lattice27(rand.New(rand.NewPCG(1, 1)))
 	b.ReportAllocs()
@@ -68,5 +140,16 @@ func BenchmarkFitOperator(b *testing.B) {
 	b.ReportAllocs()
 	for b.Loop() {
 		fitStencil(3, 2, [3]float64{}, [3]float64{1, 1, 1}, pts, nil, 0, wellPosed)
+	}
+}
+
+// BenchmarkFitOperatorGradient times the operator of a node's recovered
+// gradient: the linear rows only, as growOp builds it.
+func BenchmarkFitOperatorGradient(b *testing.B) {
+	pts, _, _ := lattice27(rand.New(rand.NewPCG(1, 1)))
+	var w fitWork
+	b.ReportAllocs()
+	for b.Loop() {
+		fitOperator(3, 2, 1, 4, [3]float64{}, [3]float64{1, 1, 1}, pts, wellPosed, &w)
 	}
 }

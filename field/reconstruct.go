@@ -76,8 +76,8 @@ func (s *Sampler) buildCellOp(zi, c int) *stencilOp {
 	h := halfExtents(l.dim, lo, hi)
 	refs, next := append(w.refs[:0], CellRef{int32(zi), int32(c)}), w.next[:0]
 	defer func() { w.refs, w.next = refs, next }()
-	return growOp(l.dim, numTerms(l.dim, 2), x0, h, func(int) ([][3]float64, []sampleRef) {
-		next = s.expandRing(refs, next, &w.ring)
+	return growOp(l.dim, 0, numTerms(l.dim, 2), x0, h, &w.fit, func(int) ([][3]float64, []sampleRef) {
+		next = s.expandRing(refs, next, &w.ring, &w.table)
 		refs, next = next, refs
 		w.pts, w.ids = w.pts[:0], w.ids[:0]
 		for _, r := range refs {
@@ -107,8 +107,9 @@ type sampleRef struct{ zone, idx int32 }
 // coefficients of the least-squares polynomial through them:
 // coef_t = Σ_i W[t][i] v_i, with W stored as the coefficients of a polyFit
 // of m components (the fit of the identity data). Cell operators keep every
-// term; node operators only the constant and linear ones, all that the
-// recovered gradient at the node needs (w.terms = dim+1, see fitOperator).
+// term; node operators only the linear ones, all that the recovered
+// gradient at the node needs (w.first = 1, w.terms = dim+1, see
+// fitOperator), or only the constant one where the fit is constant.
 // It depends only on the geometry, so every array of the same centering
 // shares it.
 type stencilOp struct {
@@ -117,7 +118,8 @@ type stencilOp struct {
 }
 
 // apply returns the fit of the array with per-zone data and comps
-// components over the stencil.
+// components over the stencil. The operator must keep every term from the
+// constant one on (first = 0, as cell operators do).
 func (op *stencilOp) apply(data [][]float64, comps int) *polyFit {
 	m := len(op.ids)
 	f := polyFit{dim: op.w.dim, terms: op.w.terms, comps: comps, x0: op.w.x0, h: op.w.h, coef: make([]float64, op.w.terms*comps)}
@@ -142,7 +144,8 @@ func (op *stencilOp) apply(data [][]float64, comps int) *polyFit {
 // fit of the array with per-zone data and comps components over the
 // stencil, where only the linear terms contribute: ∂f_c/∂x_j =
 // (Σ_i W[1+j][i] v_ic) / h_j for j < dim, and 0 otherwise or when the fit
-// has no linear terms.
+// has no linear terms. The operator must keep the linear terms (first <= 1)
+// if it has any.
 func (op *stencilOp) centreGradient(data [][]float64, comps int, dst []float64) {
 	for i := range dst[:3*comps] {
 		dst[i] = 0
@@ -150,9 +153,45 @@ func (op *stencilOp) centreGradient(data [][]float64, comps int, dst []float64) 
 	if op.w.terms < 2 {
 		return
 	}
+	if comps > centreComps {
+		op.centreGradientSlow(data, comps, dst)
+		return
+	}
+	// One pass over the samples; each sum in sample order as below.
+	m, dim := len(op.ids), op.w.dim
+	var rows [3][]float64
+	for j := 0; j < dim; j++ {
+		t := 1 + j - op.w.first
+		rows[j] = op.w.coef[t*m : (t+1)*m : (t+1)*m]
+	}
+	var sum [3 * centreComps]float64 // sum[3c+j]
+	for i, id := range op.ids {
+		v := data[id.zone][int(id.idx)*comps : int(id.idx+1)*comps]
+		for j := 0; j < dim; j++ {
+			w := rows[j][i]
+			for c, vc := range v {
+				sum[3*c+j] += w * vc
+			}
+		}
+	}
+	for c := 0; c < comps; c++ {
+		for j := 0; j < dim; j++ {
+			dst[3*c+j] = sum[3*c+j] / op.w.h[j]
+		}
+	}
+}
+
+// centreComps is the number of components up to which centreGradient
+// forms all sums in one pass over the samples.
+const centreComps = 9
+
+// centreGradientSlow is centreGradient for arrays of more than
+// centreComps components.
+func (op *stencilOp) centreGradientSlow(data [][]float64, comps int, dst []float64) {
 	m := len(op.ids)
 	for j := 0; j < op.w.dim; j++ {
-		row := op.w.coef[(1+j)*m : (2+j)*m]
+		t := 1 + j - op.w.first
+		row := op.w.coef[t*m : (t+1)*m]
 		for c := 0; c < comps; c++ {
 			s := 0.0
 			for i, id := range op.ids {
@@ -171,9 +210,10 @@ func (op *stencilOp) centreGradient(data [][]float64, comps int, dst []float64) 
 // of cells at a boundary (no curvature across them). If no stencil
 // qualifies, the largest one gets the best fit of lower degree (2, 1, then
 // 0 at rankTol); with no sample at all the fit is NaN. The operator keeps
-// the coefficients of at most the first rows basis terms (see
-// fitOperator).
-func growOp(dim, rows int, x0, h [3]float64, gather func(grow int) ([][3]float64, []sampleRef)) *stencilOp {
+// the coefficients of the basis terms first..rows-1 that the fit has (see
+// fitOperator), and of the constant term when that is all it has. fw is
+// scratch space for the fits.
+func growOp(dim, first, rows int, x0, h [3]float64, fw *fitWork, gather func(grow int) ([][3]float64, []sampleRef)) *stencilOp {
 	need := minSamples(dim)
 	var pts [][3]float64
 	var ids []sampleRef
@@ -182,12 +222,13 @@ func growOp(dim, rows int, x0, h [3]float64, gather func(grow int) ([][3]float64
 		if len(pts) < need {
 			continue
 		}
-		if w, ok := fitOperator(dim, 2, min(rows, numTerms(dim, 2)), x0, h, pts, wellPosed); ok {
+		if w, ok := fitOperator(dim, 2, first, min(rows, numTerms(dim, 2)), x0, h, pts, wellPosed, fw); ok {
 			return &stencilOp{w: w, ids: slices.Clone(ids)}
 		}
 	}
 	for deg := 2; deg >= 0 && len(pts) > 0; deg-- {
-		if w, ok := fitOperator(dim, deg, min(rows, numTerms(dim, deg)), x0, h, pts, rankTol); ok {
+		r := min(rows, numTerms(dim, deg))
+		if w, ok := fitOperator(dim, deg, min(first, r-1), r, x0, h, pts, rankTol, fw); ok {
 			return &stencilOp{w: w, ids: slices.Clone(ids)}
 		}
 	}

@@ -22,8 +22,11 @@ import (
 // fit reproduces quadratics (measured orders in doc.go).
 
 // gradBlockSize is the number of consecutive nodes whose recovered
-// gradients share one lazily allocated gradBlock.
-const gradBlockSize = 64
+// gradients share one lazily allocated gradBlock. Small, because a surface
+// cut through a volume mesh needs few nodes of each run of consecutive
+// ones (about 4 of 16 for a sphere through a structured box), and a block
+// costs 8(3·comps + 1/2) bytes per node whether used or not.
+const gradBlockSize = 16
 
 // gradBlock holds the recovered gradients of gradBlockSize consecutive
 // nodes of one zone for one array of comps components: node k of the block
@@ -82,11 +85,11 @@ func (s *Sampler) buildNodeOp(zi int, n int32) *stencilOp {
 	w := stencilWorkPool.Get().(*stencilWork)
 	defer stencilWorkPool.Put(w)
 	x := l.f.Zones[zi].Point(n)
-	refs := l.cellsAtNode(x, w.refs[:0])
+	refs := l.cellsAtNode(zi, n, w.refs[:0])
 	next := w.next[:0]
 	defer func() { w.refs, w.next = refs, next }()
 	collect := func() {
-		w.keys = patchSamples(l.f, refs, w.keys[:0])
+		w.keys = patchSamples(l.f, refs, w.keys[:0], &w.table)
 		w.pts, w.ids = w.pts[:0], w.ids[:0]
 		for _, q := range w.keys {
 			zq, nq := int32(q>>32), int32(uint32(q))
@@ -108,9 +111,9 @@ func (s *Sampler) buildNodeOp(zi int, n int32) *stencilOp {
 		e[k] = max(x[k]-lo[k], hi[k]-x[k])
 	}
 	h := halfExtents(l.dim, [3]float64{-e[0], -e[1], -e[2]}, e)
-	return growOp(l.dim, l.dim+1, x, h, func(grow int) ([][3]float64, []sampleRef) {
+	return growOp(l.dim, 1, l.dim+1, x, h, &w.fit, func(grow int) ([][3]float64, []sampleRef) {
 		if grow > 0 {
-			next = s.expandRing(refs, next, &w.ring)
+			next = s.expandRing(refs, next, &w.ring, &w.table)
 			refs, next = next, refs
 			collect()
 		}
@@ -121,8 +124,8 @@ func (s *Sampler) buildNodeOp(zi int, n int32) *stencilOp {
 // patchSamples appends to dst the nodes of the cells refs as keys
 // zone<<32 | node, each node once, in (zone, node) order. A position
 // repeated in several zones (a zone interface) counts once, keeping its
-// lowest (zone, node).
-func patchSamples(f *Field, refs []CellRef, dst []uint64) []uint64 {
+// lowest (zone, node). *table is scratch space (sortUnique).
+func patchSamples(f *Field, refs []CellRef, dst []uint64, table *[]uint64) []uint64 {
 	first := len(dst)
 	multiZone := false
 	for _, r := range refs {
@@ -132,9 +135,7 @@ func patchSamples(f *Field, refs []CellRef, dst []uint64) []uint64 {
 			dst = append(dst, uint64(r.Zone)<<32|uint64(uint32(n)))
 		}
 	}
-	s := dst[first:]
-	slices.Sort(s)
-	s = slices.Compact(s)
+	s := sortUnique(dst[first:], table)
 	if multiZone {
 		s = dedupePositions(f, s)
 	}

@@ -14,14 +14,17 @@ import (
 // distance, a ring never reaches across a thin body or a gap between
 // non-matching zones.
 
-// cellsAtNode appends to dst the indexed cells having a node at exactly x,
-// in (Zone, Cell) order.
-func (l *Locator) cellsAtNode(x [3]float64, dst []CellRef) []CellRef {
+// cellsAtNode appends to dst the indexed cells having a node at exactly
+// the position x of node n of zone zi, in (Zone, Cell) order. A cell of zi
+// using n itself has one without comparing positions.
+func (l *Locator) cellsAtNode(zi int, n int32, dst []CellRef) []CellRef {
+	x := l.f.Zones[zi].Point(n)
 	first := len(dst)
 	dst = l.CellsInBox(x, x, dst)
 	keep := dst[:first]
 	for _, r := range dst[first:] {
-		if l.f.Zones[r.Zone].hasNodeAt(int(r.Cell), x) {
+		z := l.f.Zones[r.Zone]
+		if int(r.Zone) == zi && slices.Contains(z.CellNodes(int(r.Cell)), n) || z.hasNodeAt(int(r.Cell), x) {
 			keep = append(keep, r)
 		}
 	}
@@ -47,7 +50,7 @@ func (s *Sampler) nodeCells(zi int, n int32) []CellRef {
 	if p := slot.Load(); p != nil {
 		return *p
 	}
-	r := slices.Clip(s.l.cellsAtNode(s.l.f.Zones[zi].Point(n), nil))
+	r := slices.Clip(s.l.cellsAtNode(zi, n, nil))
 	slot.Store(&r)
 	return r
 }
@@ -55,8 +58,8 @@ func (s *Sampler) nodeCells(zi int, n int32) []CellRef {
 // expandRing returns refs together with every indexed cell that shares a
 // node with one of them, sorted by (Zone, Cell) without duplicates. refs
 // itself may hold cells that are not indexed (a blank cell); they are
-// dropped. dst is reused for the result, *keys as scratch space.
-func (s *Sampler) expandRing(refs []CellRef, dst []CellRef, keys *[]uint64) []CellRef {
+// dropped. dst is reused for the result, *keys and *table as scratch space.
+func (s *Sampler) expandRing(refs []CellRef, dst []CellRef, keys, table *[]uint64) []CellRef {
 	ks := (*keys)[:0] // zone<<32 | cell: sorts as (Zone, Cell)
 	for _, r := range refs {
 		for _, n := range s.l.f.Zones[r.Zone].CellNodes(int(r.Cell)) {
@@ -65,14 +68,59 @@ func (s *Sampler) expandRing(refs []CellRef, dst []CellRef, keys *[]uint64) []Ce
 			}
 		}
 	}
-	slices.Sort(ks)
-	ks = slices.Compact(ks)
+	ks = sortUnique(ks, table)
 	*keys = ks
 	dst = dst[:0]
 	for _, k := range ks {
 		dst = append(dst, CellRef{int32(k >> 32), int32(uint32(k))})
 	}
 	return dst
+}
+
+// sortUnique sorts s and removes repeated keys, in place, like slices.Sort
+// followed by slices.Compact, and returns the result. Stencils list each
+// key several times (a node for each of its cells, a cell for each of its
+// nodes), so the repeats are dropped first, through an open-addressing
+// hash set in *table (scratch space), and only the distinct keys sorted.
+// Keys are zone<<32 | index with both non-negative int32.
+func sortUnique(s []uint64, table *[]uint64) []uint64 {
+	if len(s) < 16 {
+		slices.Sort(s)
+		return slices.Compact(s)
+	}
+	size := 32
+	for size < 2*len(s) {
+		size *= 2
+	}
+	if cap(*table) < size {
+		*table = make([]uint64, size)
+	}
+	t := (*table)[:size] // slot holds key+1, 0 when free: no key is ^0
+	clear(t)
+	mask := uint64(size - 1)
+	out := s[:0]
+	for _, k := range s {
+		h := (k * 0x9e3779b97f4a7c15) >> 32 & mask
+		for t[h] != 0 && t[h] != k+1 {
+			h = (h + 1) & mask
+		}
+		if t[h] == 0 {
+			t[h] = k + 1
+			out = append(out, k) // out never overtakes the loop: len(out) <= index
+		}
+	}
+	if len(out) > 48 {
+		slices.Sort(out)
+		return out
+	}
+	for i := 1; i < len(out); i++ { // insertion sort: few keys
+		k, j := out[i], i
+		for ; j > 0 && out[j-1] > k; j-- {
+			out[j] = out[j-1]
+		}
+		out[j] = k
+	}
+	return out
 }
 
 func comparePos(a, b [3]float64) int {
@@ -92,6 +140,8 @@ func comparePos(a, b [3]float64) int {
 type stencilWork struct {
 	refs, next []CellRef
 	keys, ring []uint64
+	table      []uint64 // for sortUnique
+	fit        fitWork
 	pts        [][3]float64
 	ids        []sampleRef
 }
