@@ -38,8 +38,20 @@ func BenchmarkCutSphereTet(b *testing.B) {
 	benchmarkCut(b, l)
 }
 
+// BenchmarkCutSphereCellSize cuts the default sphere of radius 0.6, its
+// facets following the cell size (about 23k facets), through the 100³
+// hexahedra of BenchmarkCutSphere: the cut of the forces command's scale
+// benchmark, without the file.
+func BenchmarkCutSphereCellSize(b *testing.B) {
+	l := locator(b, fieldtest.BoxHex([3]float64{-1, -1, -1}, [3]float64{1, 1, 1}, [3]int{100, 100, 100}))
+	benchmarkCutShape(b, l, Sphere{Center: [3]float64{0.013, -0.007, 0.004}, Radius: 0.6})
+}
+
 func benchmarkCut(b *testing.B, l *field.Locator) {
-	s := Sphere{Center: [3]float64{0.013, -0.007, 0.004}, Radius: 0.6, Res: Resolution{Facets: 100_000}}
+	benchmarkCutShape(b, l, Sphere{Center: [3]float64{0.013, -0.007, 0.004}, Radius: 0.6, Res: Resolution{Facets: 100_000}})
+}
+
+func benchmarkCutShape(b *testing.B, l *field.Locator, s Shape) {
 	b.ReportAllocs()
 	cpu0 := fieldtest.ProcessCPU()
 	b.ResetTimer()

@@ -21,7 +21,7 @@ type regions struct {
 
 // regionCacheSize is the number of cells whose regions a worker keeps (a
 // power of two).
-const regionCacheSize = 512
+const regionCacheSize = 4096
 
 // cellRegions are the regions of one cell: region k is the intersection of
 // planes[start[k]:start[k+1]]; simp[k] holds the vertices of region k when
@@ -59,10 +59,9 @@ const offPlane = 1e-6
 // has no piece in the cell.
 func (r *regions) build(z *field.Zone, ref field.CellRef, dim int, n, o [3]float64) bool {
 	if r.cache == nil {
-		r.cache = make([]cellRegions, regionCacheSize)
+		r.alloc()
 	}
-	h := (uint32(ref.Cell)*2654435761 ^ uint32(ref.Zone)*40503) >> 7
-	cr := &r.cache[h&(regionCacheSize-1)]
+	cr := &r.cache[cellHash(ref)&(regionCacheSize-1)]
 	if !cr.filled || cr.ref != ref {
 		cr.fill(z, ref, dim)
 	}
@@ -79,30 +78,60 @@ func (r *regions) build(z *field.Zone, ref field.CellRef, dim int, n, o [3]float
 	return true
 }
 
+// alloc makes the cache, with room in each entry for the regions of a
+// hexahedron (carved from three blocks: a few allocations, not thousands);
+// a cell needing more grows its entry's slices alone.
+func (r *regions) alloc() {
+	const nodes, planes = 8, 6
+	r.cache = make([]cellRegions, regionCacheSize)
+	nb := make([][3]float64, regionCacheSize*nodes)
+	pb := make([]halfSpace, regionCacheSize*planes)
+	sb := make([]int, regionCacheSize*2)
+	for k := range r.cache {
+		cr := &r.cache[k]
+		cr.nodes = nb[k*nodes : k*nodes : (k+1)*nodes]
+		cr.planes = pb[k*planes : k*planes : (k+1)*planes]
+		cr.start = sb[2*k : 2*k : 2*k+2]
+	}
+}
+
+// cellHash returns a hash of ref for the direct-mapped cell caches.
+func cellHash(ref field.CellRef) uint32 {
+	return (uint32(ref.Cell)*2654435761 ^ uint32(ref.Zone)*40503) >> 7
+}
+
 // fill computes the regions of cell ref of z.
 func (cr *cellRegions) fill(z *field.Zone, ref field.CellRef, dim int) {
 	cr.ref, cr.filled = ref, true
 	cr.planes, cr.start, cr.simp = cr.planes[:0], cr.start[:0], cr.simp[:0]
 	cr.nodes = cr.nodes[:0]
 	c := int(ref.Cell)
-	lo := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}
-	hi := [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
-	var cen [3]float64
+	// Bounding box and node mean, by component (see radonPoints).
+	lo0, lo1, lo2 := math.Inf(1), math.Inf(1), math.Inf(1)
+	hi0, hi1, hi2 := math.Inf(-1), math.Inf(-1), math.Inf(-1)
+	var c0, c1, c2 float64
 	for _, p := range z.CellNodes(c) {
 		x := z.Point(p)
 		cr.nodes = append(cr.nodes, x)
-		cen = add(cen, x)
-		for k := 0; k < 3; k++ {
-			lo[k], hi[k] = min(lo[k], x[k]), max(hi[k], x[k])
-		}
+		c0, c1, c2 = c0+x[0], c1+x[1], c2+x[2]
+		lo0, hi0 = min(lo0, x[0]), max(hi0, x[0])
+		lo1, hi1 = min(lo1, x[1]), max(hi1, x[1])
+		lo2, hi2 = min(lo2, x[2]), max(hi2, x[2])
 	}
-	cr.scale = max(hi[0]-lo[0], hi[1]-lo[1], hi[2]-lo[2])
-	cen = scale(cen, 1/float64(len(cr.nodes)))
+	cr.scale = max(hi0-lo0, hi1-lo1, hi2-lo2)
+	inv := 1 / float64(len(cr.nodes))
+	cen := [3]float64{c0 * inv, c1 * inv, c2 * inv}
 	if cr.own = cr.ownFaces(z.Types[c], cen, dim); cr.own {
 		return
 	}
 	cr.planes, cr.start = cr.planes[:0], cr.start[:0]
 	cr.all = z.Simplices(c, cr.all[:0])
+	if n := len(cr.all); cap(cr.simp) < n {
+		// Grow the entry once for all its simplices.
+		cr.simp = make([][4][3]float64, 0, n)
+		cr.start = make([]int, 0, n+1)
+		cr.planes = make([]halfSpace, 0, (dim+1)*n)
+	}
 	for _, s := range cr.all {
 		if degenerate(s, dim, cr.scale) {
 			continue // a flat simplex bounds nothing and owns no area
@@ -112,7 +141,7 @@ func (cr *cellRegions) fill(z *field.Zone, ref field.CellRef, dim int) {
 		if dim == 2 {
 			cr.addEdges(s[:3], [][]int{{0, 1}, {1, 2}, {2, 0}})
 		} else {
-			cr.addFaces(s[:], [][]int{{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}})
+			cr.addFaces(&s)
 		}
 	}
 	cr.start = append(cr.start, len(cr.planes))
@@ -122,10 +151,14 @@ func (cr *cellRegions) fill(z *field.Zone, ref field.CellRef, dim int) {
 // side of the plane through o with unit normal n.
 func oneSide(x [][3]float64, n, o [3]float64, margin float64) bool {
 	above, below := true, true
-	for _, p := range x {
-		d := dot(n, sub(p, o))
+	for i := range x {
+		p := &x[i]
+		d := n[0]*(p[0]-o[0]) + n[1]*(p[1]-o[1]) + n[2]*(p[2]-o[2]) // dot(n, p - o)
 		above = above && d > margin
 		below = below && d < -margin
+		if !above && !below {
+			return false
+		}
 	}
 	return above || below
 }
@@ -147,17 +180,24 @@ func (r *cellRegions) ownFaces(t field.CellType, cen [3]float64, dim int) bool {
 			h.m = unit([3]float64{b[1] - a[1], a[0] - b[0], 0})
 			h.c = dot(h.m, a)
 		} else {
-			// Newell's normal and the mean point of the face.
-			var m, fc [3]float64
+			// Newell's normal and the mean point of the face, by
+			// component.
+			var m0, m1, m2, f0, f1, f2 float64
 			for i, k := range f {
-				p, q := r.nodes[k], r.nodes[f[(i+1)%len(f)]]
-				m[0] += (p[1] - q[1]) * (p[2] + q[2])
-				m[1] += (p[2] - q[2]) * (p[0] + q[0])
-				m[2] += (p[0] - q[0]) * (p[1] + q[1])
-				fc = add(fc, p)
+				next := i + 1
+				if next == len(f) {
+					next = 0
+				}
+				p, q := &r.nodes[k], &r.nodes[f[next]]
+				m0 += (p[1] - q[1]) * (p[2] + q[2])
+				m1 += (p[2] - q[2]) * (p[0] + q[0])
+				m2 += (p[0] - q[0]) * (p[1] + q[1])
+				f0, f1, f2 = f0+p[0], f1+p[1], f2+p[2]
 			}
-			h.m = unit(m)
-			h.c = dot(h.m, scale(fc, 1/float64(len(f))))
+			m0, m1, m2 = unit3(m0, m1, m2)
+			h.m = [3]float64{m0, m1, m2}
+			inv := 1 / float64(len(f))
+			h.c = h.m[0]*(f0*inv) + h.m[1]*(f1*inv) + h.m[2]*(f2*inv)
 		}
 		if h.m == [3]float64{} {
 			return false
@@ -165,34 +205,61 @@ func (r *cellRegions) ownFaces(t field.CellType, cen [3]float64, dim int) bool {
 		if dot(h.m, cen)-h.c > 0 {
 			h.m, h.c = scale(h.m, -1), -h.c
 		}
+		m0, m1, m2, hc := h.m[0], h.m[1], h.m[2], h.c
+		var onFace uint64
 		for _, k := range f {
-			if math.Abs(dot(h.m, r.nodes[k])-h.c) > tol {
+			p := &r.nodes[k]
+			if math.Abs(m0*p[0]+m1*p[1]+m2*p[2]-hc) > tol {
 				return false // warped face
 			}
+			onFace |= 1 << uint(k)
 		}
-		for _, p := range r.nodes {
-			if dot(h.m, p)-h.c > tol {
+		for k := range r.nodes {
+			// The face's own nodes passed the stricter test above.
+			p := &r.nodes[k]
+			if onFace&(1<<uint(k)) == 0 && m0*p[0]+m1*p[1]+m2*p[2]-hc > tol {
 				return false // not convex
 			}
 		}
-		r.planes = append(r.planes, h)
+		r.planes = append(r.planes, makeHalfSpace(h.m, h.c))
 	}
 	r.start = append(r.start, len(r.planes))
 	return true
 }
 
 // addFaces appends the outward planes of the triangles of simplex s.
-func (r *cellRegions) addFaces(s [][3]float64, faces [][]int) {
-	cen := scale(add(add(s[0], s[1]), add(s[2], s[3])), 0.25)
-	for _, f := range faces {
-		a := s[f[0]]
-		m := unit(cross(sub(s[f[1]], a), sub(s[f[2]], a)))
-		c := dot(m, a)
-		if dot(m, cen)-c > 0 {
-			m, c = scale(m, -1), -c
-		}
-		r.planes = append(r.planes, halfSpace{m, c})
+// The arithmetic, written out by component (see radonPoints), is that of
+// m = unit(cross(b - a, c - a)), c = m·a for face (a, b, c), the centroid
+// scale(add(add(s0, s1), add(s2, s3)), 0.25), and m, c = scale(m, -1), -c.
+func (r *cellRegions) addFaces(s *[4][3]float64) {
+	var cen [3]float64
+	for i := range cen {
+		cen[i] = ((s[0][i] + s[1][i]) + (s[2][i] + s[3][i])) * 0.25
 	}
+	for _, f := range tetFaces {
+		a, b, c := &s[f[0]], &s[f[1]], &s[f[2]]
+		ux, uy, uz := b[0]-a[0], b[1]-a[1], b[2]-a[2]
+		vx, vy, vz := c[0]-a[0], c[1]-a[1], c[2]-a[2]
+		m0, m1, m2 := unit3(uy*vz-uz*vy, uz*vx-ux*vz, ux*vy-uy*vx)
+		hc := m0*a[0] + m1*a[1] + m2*a[2]
+		if m0*cen[0]+m1*cen[1]+m2*cen[2]-hc > 0 {
+			m0, m1, m2, hc = m0*-1, m1*-1, m2*-1, -hc
+		}
+		r.planes = append(r.planes, makeHalfSpace([3]float64{m0, m1, m2}, hc))
+	}
+}
+
+// tetFaces are the faces of a tetrahedron by node index.
+var tetFaces = [4][3]int{{0, 1, 2}, {0, 1, 3}, {0, 2, 3}, {1, 2, 3}}
+
+// unit3 returns unit([3]float64{x, y, z}) by component.
+func unit3(x, y, z float64) (float64, float64, float64) {
+	l := math.Sqrt(x*x + y*y + z*z)
+	if l == 0 {
+		return x, y, z
+	}
+	k := 1 / l
+	return x * k, y * k, z * k
 }
 
 // addEdges appends the outward in-plane lines of the edges of triangle s.
@@ -205,7 +272,7 @@ func (r *cellRegions) addEdges(s [][3]float64, edges [][]int) {
 		if dot(m, cen)-c > 0 {
 			m, c = scale(m, -1), -c
 		}
-		r.planes = append(r.planes, halfSpace{m, c})
+		r.planes = append(r.planes, makeHalfSpace(m, c))
 	}
 }
 
@@ -225,5 +292,7 @@ func degenerate(s [4][3]float64, dim int, size float64) bool {
 	if dim == 2 {
 		return math.Abs(u[0]*v[1]-u[1]*v[0]) <= 1e-14*size*size
 	}
-	return math.Abs(dot(cross(u, v), sub(s[3], s[0]))) <= 1e-14*size*size*size
+	// dot(cross(u, v), s3 - s0) by component.
+	w0, w1, w2 := s[3][0]-s[0][0], s[3][1]-s[0][1], s[3][2]-s[0][2]
+	return math.Abs((u[1]*v[2]-u[2]*v[1])*w0+(u[2]*v[0]-u[0]*v[2])*w1+(u[0]*v[1]-u[1]*v[0])*w2) <= 1e-14*size*size*size
 }

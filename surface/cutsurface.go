@@ -5,8 +5,8 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"slices"
 	"sync"
-	"sync/atomic"
 
 	"farforce/field"
 )
@@ -23,7 +23,7 @@ type CutOptions struct {
 
 // chunkFacets is the number of facets per unit of parallel work; fixed so
 // that the split, and hence the result, is independent of the workers.
-const chunkFacets = 64
+const chunkFacets = 256
 
 // dropArea is the relative area (to the facet's) below which a clipped
 // piece is discarded as a rounding sliver (a facet grazing a cell edge).
@@ -86,124 +86,154 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(1, min(workers, nChunks))
-	var next atomic.Int64
-	var sizes outputSizes
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			c := newCutter(l, f, spec)
-			for {
-				ci := int(next.Add(1) - 1)
-				if ci >= nChunks {
-					return
-				}
-				r := &chunks[ci]
-				np, nq := sizes.guess()
-				r.pieces = make([]Piece, 0, np)
-				r.points = make([]QuadPoint, 0, nq)
-				for i := ci * chunkFacets; i < min(nf, (ci+1)*chunkFacets); i++ {
-					// Every chunk runs to its first error, so the error
-					// reported (the first in facet order) is deterministic.
-					if r.err = c.facet(i, r, &cov[i]); r.err != nil {
-						break
-					}
-				}
-				sizes.record(len(r.pieces), len(r.points))
+
+	// Pass 1: clip the facets into pieces, chunk by chunk; a piece's First
+	// is relative to its chunk's points.
+	eachChunk(nChunks, workers, func() func(int) {
+		c := newCutter(l, f, spec)
+		var w chunkResult // grows to the largest chunk, then is reused
+		return func(ci int) {
+			for i := ci * chunkFacets; i < min(nf, (ci+1)*chunkFacets); i++ {
+				c.facet(i, &w, &cov[i], false)
 			}
-		}()
+			chunks[ci] = w.compact()
+		}
+	})
+
+	// Pass 2: with the chunks' offsets known, place the quadrature points
+	// of every piece directly into the cut's arrays.
+	offP, offQ := make([]int, nChunks+1), make([]int, nChunks+1)
+	for i := range chunks {
+		offP[i+1] = offP[i] + len(chunks[i].pieces)
+		offQ[i+1] = offQ[i] + chunks[i].points
 	}
-	wg.Wait()
-	np, nq := 0, 0
+	cut.Pieces = make([]Piece, offP[nChunks])
+	cut.Points = make([]QuadPoint, offQ[nChunks])
+	eachChunk(nChunks, workers, func() func(int) {
+		p := placer{l: l, spec: spec, dim: dim}
+		return func(ci int) {
+			r := &chunks[ci]
+			// Every chunk runs to its first error, so the error reported
+			// (the first in facet order) is deterministic.
+			r.err = p.chunk(r, cut.Pieces[offP[ci]:offP[ci+1]], cut.Points[offQ[ci]:offQ[ci+1]], offQ[ci])
+			r.pieces, r.facet = nil, nil
+		}
+	})
 	for i := range chunks {
 		if chunks[i].err != nil {
 			return nil, chunks[i].err
 		}
-		np += len(chunks[i].pieces)
-		nq += len(chunks[i].points)
 	}
-	if err := checkCover(spec, dim, area, cov); err != nil {
+	var mc *cutter
+	moments := func(i int, fc *facetCover) {
+		if mc == nil {
+			mc = newCutter(l, f, spec)
+		}
+		mc.facet(i, &chunkResult{}, fc, true)
+	}
+	if err := checkCover(spec, dim, area, cov, moments); err != nil {
 		return nil, err
 	}
-	cut.Pieces = make([]Piece, np)
-	cut.Points = make([]QuadPoint, nq)
-	concat(cut, chunks, workers)
 	return cut, nil
 }
 
-// concat copies the chunks' pieces and points, in chunk order, into the
-// preallocated cut.Pieces and cut.Points, shifting each piece's First by
-// its chunk's offset. The copy, a few hundred megabytes for a large cut,
-// is split by chunk over the workers.
-func concat(cut *Cut, chunks []chunkResult, workers int) {
-	offP, offQ := make([]int, len(chunks)+1), make([]int, len(chunks)+1)
-	for i := range chunks {
-		offP[i+1] = offP[i] + len(chunks[i].pieces)
-		offQ[i+1] = offQ[i] + len(chunks[i].points)
-	}
+// eachChunk runs the chunks 0..n-1 on workers goroutines; newWorker is
+// called once per goroutine and returns its chunk function (with its own
+// scratch state). Each goroutine starts on its own contiguous share of the
+// chunks and then takes chunks from the end of the largest share left, so
+// that consecutive chunks, which cross the same cells, mostly run on the
+// same goroutine (and hit its cell caches).
+func eachChunk(n, workers int, newWorker func() func(ci int)) {
+	var q chunkShares
+	q.split(n, workers)
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for i := w; i < len(chunks); i += workers {
-				off := int32(offQ[i])
-				dst := cut.Pieces[offP[i]:offP[i+1]]
-				for k, p := range chunks[i].pieces {
-					p.First += off
-					dst[k] = p
-				}
-				copy(cut.Points[offQ[i]:offQ[i+1]], chunks[i].points)
-				chunks[i] = chunkResult{}
+			do := newWorker()
+			for ci := q.take(w); ci >= 0; ci = q.take(w) {
+				do(ci)
 			}
 		}()
 	}
 	wg.Wait()
 }
 
-// outputSizes tracks the largest piece and point counts of the chunks
-// done so far, to size the buffers of the next ones (which then rarely
-// grow). Capacities do not affect the result.
-type outputSizes struct{ pieces, points atomic.Int64 }
-
-// guess returns capacities for a chunk's pieces and points.
-func (s *outputSizes) guess() (pieces, points int) {
-	p, q := int(s.pieces.Load()), int(s.points.Load())
-	return max(4*chunkFacets, p+p/8), max(40*chunkFacets, q+q/8)
+// chunkShares is the work queue of eachChunk: share w is
+// the chunks lo[w]..hi[w]-1 not yet taken.
+type chunkShares struct {
+	mu     sync.Mutex
+	lo, hi []int
 }
 
-// record notes the counts of a finished chunk.
-func (s *outputSizes) record(pieces, points int) {
-	for old := s.pieces.Load(); int64(pieces) > old && !s.pieces.CompareAndSwap(old, int64(pieces)); old = s.pieces.Load() {
-	}
-	for old := s.points.Load(); int64(points) > old && !s.points.CompareAndSwap(old, int64(points)); old = s.points.Load() {
+// split divides the chunks 0..n-1 into workers contiguous shares.
+func (q *chunkShares) split(n, workers int) {
+	q.lo, q.hi = make([]int, workers), make([]int, workers)
+	for w := range q.lo {
+		q.lo[w], q.hi[w] = w*n/workers, (w+1)*n/workers
 	}
 }
 
-// chunkResult is the output of one chunk of facets; First of each piece
-// is relative to the chunk's points.
+// take returns the next chunk of share w or, when that is empty, the last
+// chunk of the largest share; -1 when no chunk is left.
+func (q *chunkShares) take(w int) int {
+	q.mu.Lock()
+	defer q.mu.Unlock()
+	if q.lo[w] < q.hi[w] {
+		q.lo[w]++
+		return q.lo[w] - 1
+	}
+	best := w
+	for v := range q.lo {
+		if q.hi[v]-q.lo[v] > q.hi[best]-q.lo[best] {
+			best = v
+		}
+	}
+	if q.lo[best] == q.hi[best] {
+		return -1
+	}
+	q.hi[best]--
+	return q.hi[best]
+}
+
+// chunkResult is the output of one chunk of facets: its pieces (First
+// relative to the chunk's points), the facet of each piece, the number
+// of quadrature points of its pieces, the pieces' vertices, and the first
+// error of pass 2. While a chunk is cut, the pieces' Verts are unset and
+// piece k's vertices are verts[vend[k-1]:vend[k]].
 type chunkResult struct {
 	pieces []Piece
-	points []QuadPoint
-	verts  [][3]float64 // backing store of the pieces' vertices
+	facet  []int32
+	points int
+	verts  [][3]float64
+	vend   []int
 	err    error
 }
 
-// keep returns a copy of poly carved from the chunk's vertex store, so that
-// pieces do not allocate one by one. Earlier copies stay valid when the
-// store grows (a new block is started).
-func (r *chunkResult) keep(poly [][3]float64) [][3]float64 {
-	if len(r.verts)+len(poly) > cap(r.verts) {
-		r.verts = make([][3]float64, 0, max(4096, len(poly)))
+// compact returns a copy of r in storage of exactly its size, with the
+// pieces' Verts set, and empties r for the next chunk.
+func (r *chunkResult) compact() chunkResult {
+	out := chunkResult{
+		pieces: make([]Piece, len(r.pieces)),
+		facet:  slices.Clone(r.facet),
+		points: r.points,
+		verts:  slices.Clone(r.verts),
 	}
-	n := len(r.verts)
-	r.verts = append(r.verts, poly...)
-	return r.verts[n : n+len(poly) : n+len(poly)]
+	start := 0
+	for k, p := range r.pieces {
+		end := r.vend[k]
+		p.Verts = out.verts[start:end:end]
+		out.pieces[k] = p
+		start = end
+	}
+	r.pieces, r.facet, r.points, r.verts, r.vend = r.pieces[:0], r.facet[:0], 0, r.verts[:0], r.vend[:0]
+	return out
 }
 
 // facetCover is the coverage account of one facet: its area, the area of
-// its pieces, and the first moments (area × centroid) of both.
+// its pieces, and the first moments (area × centroid) of both, which pass 1
+// leaves out.
 type facetCover struct {
 	area, covered float64
 	moment, mCov  [3]float64
@@ -211,8 +241,9 @@ type facetCover struct {
 
 // checkCover sums the coverage accounts in facet order and returns a
 // *CoverageError when a facet's pieces miss or exceed its area by more
-// than CoverageTol relative.
-func checkCover(spec string, dim int, total float64, cov []facetCover) error {
+// than CoverageTol relative; moments(i, c) completes the account c of such
+// a facet i with its first moments.
+func checkCover(spec string, dim int, total float64, cov []facetCover, moments func(i int, c *facetCover)) error {
 	var unc, over field.CompensatedSum
 	nUnc, nOver := 0, 0
 	var worstUnc, worstOver float64
@@ -224,6 +255,7 @@ func checkCover(spec string, dim int, total float64, cov []facetCover) error {
 			continue
 		}
 		// The missing (or extra) part's centroid from the first moments.
+		moments(i, c)
 		var at [3]float64
 		for k := 0; k < 3; k++ {
 			at[k] = (c.moment[k] - c.mCov[k]) / d

@@ -1,7 +1,6 @@
 package surface
 
 import (
-	"fmt"
 	"math"
 	"slices"
 
@@ -24,26 +23,26 @@ type cutter struct {
 	idx      []int
 	uv       [][2]float64
 	hullPoly [][3]float64
-	cm       field.CellMap // the inverse map of the cell being emitted
-	cmOK     bool
 }
 
 func newCutter(l *field.Locator, f *Facets, spec string) *cutter {
 	return &cutter{l: l, f: f, spec: spec, dim: f.Dim}
 }
 
-// facet cuts facet i, appending its pieces and points to r and its
-// coverage account to cov.
-func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
+// facet cuts facet i, appending its pieces to r and its coverage account
+// to cov; the first moments of the account only when moments is set (they
+// locate the gaps of a failed coverage check, see checkCover).
+func (c *cutter) facet(i int, r *chunkResult, cov *facetCover, moments bool) {
 	v := c.f.Facet(i)
 	n, area := facetGeom(c.dim, v)
 	cov.area = area
 	if area == 0 {
-		return nil
+		return
 	}
 	nv := c.dim
-	cen := centroid(v[:nv])
-	cov.moment = scale(cen, area)
+	if moments {
+		cov.moment = scale(centroid(v[:nv]), area)
+	}
 	lo, hi := v[0], v[0]
 	for _, p := range v[1:nv] {
 		for k := 0; k < 3; k++ {
@@ -55,6 +54,11 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 		lo[k], hi[k] = lo[k]-pad, hi[k]+pad
 	}
 	c.cells = c.l.CellsInBox(lo, hi, c.cells[:0])
+	// Vertices this far from overflow stay finite through the clipping.
+	bounded := true
+	for _, p := range v {
+		bounded = bounded && math.Abs(p[0]) < 1e300 && math.Abs(p[1]) < 1e300 && math.Abs(p[2]) < 1e300
+	}
 	var covered field.CompensatedSum
 	var mom [3]field.CompensatedSum
 	zones := c.l.Field().Zones
@@ -65,7 +69,7 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 		tol := 1e-10 * c.reg.scale
 		c.polys, c.ends, c.areas = c.polys[:0], c.ends[:0], c.areas[:0]
 		for k := 0; k < c.reg.len(); k++ {
-			c.clipRegion(v, n, area, c.reg.region(k), tol)
+			c.clipRegion(v, n, area, c.reg.region(k), tol, bounded)
 		}
 		if len(c.ends) == 0 {
 			continue
@@ -73,32 +77,33 @@ func (c *cutter) facet(i int, r *chunkResult, cov *facetCover) error {
 		if len(c.ends) > 1 {
 			c.merge(n)
 		}
-		c.cmOK = c.l.MapCell(ref, &c.cm)
 		start := 0
 		for k, end := range c.ends {
 			poly, a := c.polys[start:end], c.areas[k]
 			start = end
 			covered.Add(a)
-			pc := centroid(poly)
-			if c.dim == 3 {
-				pc = polygonCentroid(poly, n)
+			if moments {
+				pc := centroid(poly)
+				if c.dim == 3 {
+					pc = polygonCentroid(poly, n)
+				}
+				for j := 0; j < 3; j++ {
+					mom[j].Add(a * pc[j])
+				}
 			}
-			for j := 0; j < 3; j++ {
-				mom[j].Add(a * pc[j])
-			}
-			if err := c.emit(i, ref, poly, n, a, r); err != nil {
-				return err
-			}
+			c.emit(i, ref, poly, n, a, r)
 		}
 	}
 	cov.covered = covered.Value()
-	cov.mCov = [3]float64{mom[0].Value(), mom[1].Value(), mom[2].Value()}
-	return nil
+	if moments {
+		cov.mCov = [3]float64{mom[0].Value(), mom[1].Value(), mom[2].Value()}
+	}
 }
 
 // clipRegion clips facet v (normal n, area area) against one convex region
-// and records the piece when it has area.
-func (c *cutter) clipRegion(v [3][3]float64, n [3]float64, area float64, planes []halfSpace, tol float64) {
+// and records the piece when it has area; bounded says that the facet's
+// coordinates are finite and far from overflow (see clipPolygon).
+func (c *cutter) clipRegion(v [3][3]float64, n [3]float64, area float64, planes []halfSpace, tol float64, bounded bool) {
 	if c.dim == 2 {
 		s := [2][3]float64{v[0], v[1]}
 		for j := range planes {
@@ -117,8 +122,9 @@ func (c *cutter) clipRegion(v [3][3]float64, n [3]float64, area float64, planes 
 	}
 	c.a = append(c.a[:0], v[0], v[1], v[2])
 	for j := range planes {
-		c.b = clipPolygon(c.a, &planes[j], n, tol, c.b)
-		c.a, c.b = c.b, c.a
+		if out, clipped := clipPolygon(c.a, &planes[j], n, tol, bounded, c.b); clipped {
+			c.a, c.b = out, c.a
+		}
 		if len(c.a) < 3 {
 			return
 		}
@@ -168,9 +174,10 @@ func (c *cutter) merge(n [3]float64) {
 	e2 := cross(n, e1)
 	o := c.polys[0]
 	c.uv = c.uv[:0]
-	for _, p := range c.polys {
-		q := sub(p, o)
-		c.uv = append(c.uv, [2]float64{dot(q, e1), dot(q, e2)})
+	for i := range c.polys {
+		p := &c.polys[i]
+		q0, q1, q2 := p[0]-o[0], p[1]-o[1], p[2]-o[2] // dot(p - o, e) by component
+		c.uv = append(c.uv, [2]float64{q0*e1[0] + q1*e1[1] + q2*e1[2], q0*e2[0] + q1*e2[1] + q2*e2[2]})
 	}
 	c.hull, c.idx = convexHull(c.uv, c.hull, c.idx)
 	hullPoly := c.hullPoly[:0]
@@ -224,54 +231,27 @@ func convexHull(pts [][2]float64, dst, idx []int) ([]int, []int) {
 	return dst, idx
 }
 
-// emit appends the piece poly of facet i in cell ref and its quadrature
-// points to r.
-func (c *cutter) emit(i int, ref field.CellRef, poly [][3]float64, n [3]float64, a float64, r *chunkResult) error {
-	p := Piece{Verts: r.keep(poly), N: n, Area: a, Cell: ref, First: int32(len(r.points))}
+// emit appends the piece poly (area a, by the polygon formula) of facet i
+// in cell ref to r, its vertices to r.verts: in 3D its area becomes the
+// sum of its quadrature triangles (fanArea, as placer.piece weights them),
+// and its Count that of the points placer.piece will write.
+func (c *cutter) emit(i int, ref field.CellRef, poly [][3]float64, n [3]float64, a float64, r *chunkResult) {
+	r.verts = append(r.verts, poly...)
+	r.vend = append(r.vend, len(r.verts))
+	p := Piece{N: n, Area: a, Cell: ref, First: int32(r.points)} // Verts: see compact
 	if c.dim == 2 {
-		d := sub(poly[1], poly[0])
-		for _, q := range segRule {
-			if err := c.point(i, ref, add(poly[0], scale(d, q.t)), q.w*a, n, r); err != nil {
-				return err
-			}
-		}
+		p.Count = int32(len(segRule))
 	} else {
 		var sum float64
 		for k := 1; k+1 < len(poly); k++ {
-			v0, v1, v2 := poly[0], poly[k], poly[k+1]
-			ta := dot(cross(sub(v1, v0), sub(v2, v0)), n) / 2
-			sum += ta
-			for _, q := range triRule {
-				x := add(add(scale(v0, q.l[0]), scale(v1, q.l[1])), scale(v2, q.l[2]))
-				if err := c.point(i, ref, x, q.w*ta, n, r); err != nil {
-					return err
-				}
-			}
+			sum += fanArea(poly, k, n)
 		}
 		p.Area = sum
+		p.Count = int32(len(triRule) * (len(poly) - 2))
 	}
-	p.Count = int32(len(r.points)) - p.First
+	r.points += int(p.Count)
 	r.pieces = append(r.pieces, p)
-	return nil
-}
-
-// point appends one quadrature point, located in cell ref or, failing
-// that (rounding at the face of a warped cell), wherever the locator finds
-// it.
-func (c *cutter) point(i int, ref field.CellRef, x [3]float64, w float64, n [3]float64, r *chunkResult) error {
-	var at field.Location
-	ok := false
-	if c.cmOK {
-		at, ok = c.cm.Local(x)
-	}
-	if !ok {
-		at, ok = c.l.Locate(x)
-	}
-	if !ok {
-		return fmt.Errorf("surface %q: facet %d: quadrature point (%g, %g, %g) cut in cell %d of zone %d lies in no cell: %w", c.spec, i, x[0], x[1], x[2], ref.Cell, ref.Zone, errNoCell)
-	}
-	r.points = append(r.points, QuadPoint{X: x, W: w, N: n, At: at})
-	return nil
+	r.facet = append(r.facet, int32(i))
 }
 
 // centroid returns the mean of the points.
