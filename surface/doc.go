@@ -49,7 +49,8 @@
 // # Concurrency and determinism
 //
 // Shapes are immutable values, safe for concurrent use. CutSurface works
-// over fixed chunks of facets on several goroutines and concatenates the
-// chunks in facet order, so the Cut is bit-for-bit the same for any number
-// of workers.
+// over fixed chunks of facets on several goroutines in two passes: the
+// pieces of each chunk first, then, at offsets fixed by the piece counts,
+// their quadrature points written in place. Chunks land in facet order, so
+// the Cut is bit-for-bit the same for any number of workers.
 package surface
