@@ -30,8 +30,8 @@ Surface specs are a shape word and key=value fields, vectors comma-separated:
   cylinder center=X,Y,Z axis=X,Y,Z radius=R length=L
   circle center=X,Y radius=R             rect min=X,Y max=X,Y
   polygon points=X,Y;X,Y;...             file path=P
-Any shape takes facets=N or size=H to fix the tessellation; by default it
-follows the local cell size. A surface that leaves the mesh or cuts into the
+Any shape takes facets=N or size=H to fix the tessellation; by default
+facets are about twice the local cell size. A surface that leaves the mesh or cuts into the
 body is an error (exit code 2), never a partial sum.
 
 The flow mapping is guessed from the array names (see 'farforce inspect');
