@@ -356,13 +356,27 @@ func (s *Sampler) nodeGradients(p *prepared, st *site, G []float64) {
 // adding in node order (the same bits wherever it is called from).
 func combineNodal(N *[maxCellNodes]float64, nn int, G, dst []float64) {
 	w := len(dst)
-	for i := range dst {
-		v := 0.0
-		for k := 0; k < nn; k++ {
-			v += N[k] * G[k*w+i]
+	var acc [3 * maxInlineComps]float64
+	if w > len(acc) {
+		for i := range dst {
+			v := 0.0
+			for k := 0; k < nn; k++ {
+				v += N[k] * G[k*w+i]
+			}
+			dst[i] = v
 		}
-		dst[i] = v
+		return
 	}
+	// Node by node over contiguous values: each acc[i] still adds its
+	// terms in node order, so the bits are those of the loop above.
+	a := acc[:w]
+	for k := 0; k < nn; k++ {
+		nk := N[k]
+		for i, v := range G[k*w : k*w+w] {
+			a[i] += nk * v
+		}
+	}
+	copy(dst, a)
 }
 
 // maxInlineComps is the component count up to which scratch space lives on
