@@ -45,11 +45,14 @@ func benchmarkBuild(b *testing.B, name string) {
 	b.ReportAllocs()
 	cpu0 := fieldtest.ProcessCPU()
 	b.ResetTimer()
+	var l *field.Locator
 	for b.Loop() {
-		if _, err := field.NewLocator(f); err != nil {
+		var err error
+		if l, err = field.NewLocator(f); err != nil {
 			b.Fatal(err)
 		}
 	}
+	b.ReportMetric(float64(field.IndexBytes(l))/float64(z.NumCells()), "index-B/cell")
 	cells := float64(b.N) * float64(z.NumCells())
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/cells, "ns/cell")
 	b.ReportMetric(float64((fieldtest.ProcessCPU()-cpu0).Nanoseconds())/cells, "cpu-ns/cell")

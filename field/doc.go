@@ -49,10 +49,15 @@
 //
 // NewLocator indexes the non-blank cells of the field's dimension of all
 // zones in one uniform grid of bins over their bounding boxes (padded by
-// 1e-8 of their size), about 0.7 bins per cell, filled by counting sort
-// into int32 compressed rows so that each bin lists its cells in (Zone,
-// Cell) order. Locate visits the point's bin and returns the first cell
-// whose box and inverse map contain the point: the lowest (Zone, Cell)
+// 1e-8 of their size), about 0.7 bins per cell and bins no smaller than
+// 0.8 of the mean cell-box volume, filled by counting sort into compressed
+// rows so that each bin lists its cells in (Zone, Cell) order. Each entry
+// carries the cell's box clipped to the bin and quantized to 1/512 of the
+// bin, rounded outward, as a filter that never rejects a cell whose padded
+// box holds the point. Locate filters the point's bin by these boxes,
+// gathers the survivors four at a time (their memory reads overlap) and
+// returns the first whose padded box and inverse map contain the point:
+// the lowest (Zone, Cell)
 // among all cells containing it, so points on shared faces, edges and
 // vertices resolve deterministically. CellsInBox reports each overlapping
 // cell once (from the bin holding the low corner of the overlap) and

@@ -14,19 +14,24 @@ func (l *Locator) Field() *Field { return l.f }
 // Dim returns the dimension of the indexed cells: 2 or 3.
 func (l *Locator) Dim() int { return l.dim }
 
-// inBox reports whether p lies in the padded box of indexed cell g.
-func (l *Locator) inBox(g int32, p [3]float64) bool {
-	b := l.box[6*int(g) : 6*int(g)+6 : 6*int(g)+6]
-	return p[0] >= b[0] && p[0] <= b[3] && p[1] >= b[1] && p[1] <= b[4] && p[2] >= b[2] && p[2] <= b[5]
-}
-
 // Locate returns the cell containing p and p's local coordinates in it. A
 // point on a face, edge or vertex shared by several cells (within a relative
 // tolerance of 1e-9 in local coordinates) goes to the one with the lowest
 // (Zone, Cell). ok is false when no indexed cell contains p. In 2D, p[2] is
 // ignored.
+//
+// The entries of p's bin are filtered by their quantized boxes, which
+// never reject a cell whose padded box holds p; the survivors are taken in
+// bin order, four at a time: all of a batch are gathered first (their
+// memory loads overlap), then each is tested (quick tetrahedron test,
+// inverse map, exact padded box). The result, bit for bit, is that of
+// testing every cell of the bin in order by its padded box and inverse map.
+// Cost on 10⁶ cells: about 0.5 µs when the data are in cache, plus three
+// dependent memory accesses (bin entries, connectivity, points) more for a
+// random point.
 func (l *Locator) Locate(p [3]float64) (Location, bool) {
 	var b int
+	var q uint32 // p's quantized position in its bin, one lane per axis
 	for k := l.dim - 1; k >= 0; k-- {
 		f := l.binCoord(k, p[k])
 		if !(f >= -1e-9*float64(l.n[k])) || f > float64(l.n[k])*(1+1e-9) {
@@ -39,16 +44,54 @@ func (l *Locator) Locate(p [3]float64) (Location, bool) {
 			i = 0
 		}
 		b = b*l.n[k] + i
+		q |= quantize(f-float64(i)) << (10 * uint(k))
 	}
-	var g cellGeom
-	for _, id := range l.items[l.start[b]:l.start[b+1]] {
-		if !l.inBox(id, p) {
+	var batch locateBatch
+	items := l.items[l.start[b]:l.start[b+1]]
+	for j := 0; j < len(items); {
+		n := 0
+		for ; j < len(items) && n < len(batch.id); j++ {
+			if e := &items[j]; e.mayHold(q) {
+				batch.id[n] = e.id
+				n++
+			}
+		}
+		if loc, ok := l.locateIn(&batch, n, p); ok {
+			return loc, true
+		}
+	}
+	return Location{}, false
+}
+
+// locateBatch holds up to 4 candidate cells of a query (global numbers)
+// and their gathered nodes.
+type locateBatch struct {
+	id [4]int32
+	g  [4]cellGeom
+}
+
+// locateIn gathers the first n cells of batch, then returns the first of
+// them whose padded box and inverse map contain p.
+func (l *Locator) locateIn(batch *locateBatch, n int, p [3]float64) (Location, bool) {
+	for i := 0; i < n; i++ {
+		zi, c := l.ref(batch.id[i])
+		l.gather(zi, c, &batch.g[i])
+	}
+	for i := 0; i < n; i++ {
+		// Three independent rejections, cheapest first (their order does
+		// not change which cell passes all): the quick tetrahedron test,
+		// the inverse map, and the exact padded box of the index.
+		g := &batch.g[i]
+		if g.t == Tetra && g.tetOutside(p) {
 			continue
 		}
-		z := l.f.Zones[l.zoneOf[id]]
-		z.gather(int(l.cellOf[id]), &g)
-		if r, ok := g.local(p); ok && contains(g.t, r, localTol) {
-			return Location{Zone: l.zoneOf[id], Cell: l.cellOf[id], Local: r}, true
+		r, ok := g.local(p)
+		if !ok || !contains(g.t, r, localTol) {
+			continue
+		}
+		if lo, hi := g.paddedBox(l.dim); p[0] >= lo[0] && p[0] <= hi[0] && p[1] >= lo[1] && p[1] <= hi[1] && p[2] >= lo[2] && p[2] <= hi[2] {
+			zi, c := l.ref(batch.id[i])
+			return Location{Zone: int32(zi), Cell: int32(c), Local: r}, true
 		}
 	}
 	return Location{}, false
@@ -97,19 +140,7 @@ func (l *Locator) MapCell(ref CellRef, m *CellMap) bool {
 		return false
 	}
 	m.ref = ref
-	h := 0.0
-	for k := 0; k < g.dim; k++ {
-		lo, hi := g.x[0][k], g.x[0][k]
-		for i := 1; i < g.n; i++ {
-			lo, hi = min(lo, g.x[i][k]), max(hi, g.x[i][k])
-		}
-		m.lo[k], m.hi[k] = lo, hi
-		h = max(h, hi-lo)
-	}
-	pad := boxPad*h + 1e-300
-	for k := 0; k < g.dim; k++ {
-		m.lo[k], m.hi[k] = m.lo[k]-pad, m.hi[k]+pad
-	}
+	m.lo, m.hi = g.paddedBox(g.dim)
 	m.im.init(g)
 	return true
 }
@@ -151,8 +182,8 @@ func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
 			for a := i0[0]; a <= i1[0]; a++ {
 				bin := [3]int{a, bb, c}
 				idx := (c*l.n[1]+bb)*l.n[0] + a
-				for _, id := range l.items[l.start[idx]:l.start[idx+1]] {
-					b := l.box[6*int(id) : 6*int(id)+6 : 6*int(id)+6]
+				for _, e := range l.items[l.start[idx]:l.start[idx+1]] {
+					b := l.box[6*int(e.id) : 6*int(e.id)+6 : 6*int(e.id)+6]
 					if b[0] > q[3] || b[3] < q[0] || b[1] > q[4] || b[4] < q[1] || b[2] > q[5] || b[5] < q[2] {
 						continue
 					}
@@ -166,7 +197,8 @@ func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
 						}
 					}
 					if !dup {
-						dst = append(dst, CellRef{l.zoneOf[id], l.cellOf[id]})
+						zi, c := l.ref(e.id)
+						dst = append(dst, CellRef{int32(zi), int32(c)})
 					}
 				}
 			}
@@ -191,12 +223,12 @@ func (l *Locator) CellSize(p [3]float64) float64 {
 	if loc, ok := l.Locate(p); ok {
 		return l.f.Zones[loc.Zone].meanEdge(int(loc.Cell))
 	}
-	g := l.nearest(p)
-	return l.f.Zones[l.zoneOf[g]].meanEdge(int(l.cellOf[g]))
+	zi, c := l.ref(l.nearest(p))
+	return l.f.Zones[zi].meanEdge(c)
 }
 
-// nearest returns the indexed cell whose padded box is nearest to p (ties
-// to the lowest (Zone, Cell)), visiting the shells of bins at growing
+// nearest returns the number of the indexed cell whose padded box is
+// nearest to p (ties to the lowest number, that is (Zone, Cell)), visiting the shells of bins at growing
 // Chebyshev distance ("rings") from p's clamped bin until no unvisited bin
 // can hold a nearer box. Cost: the bins within the distance of the nearest
 // box, at most every bin once.
@@ -207,10 +239,10 @@ func (l *Locator) nearest(p [3]float64) int32 {
 	}
 	best, bestD := int32(-1), math.Inf(1)
 	visit := func(b int) {
-		for _, id := range l.items[l.start[b]:l.start[b+1]] {
-			d := l.boxDist2(id, p)
-			if d < bestD || (d == bestD && l.before(id, best)) {
-				best, bestD = id, d
+		for _, e := range l.items[l.start[b]:l.start[b+1]] {
+			d := l.boxDist2(e.id, p)
+			if d < bestD || (d == bestD && (best < 0 || e.id < best)) {
+				best, bestD = e.id, d
 			}
 		}
 	}
@@ -229,18 +261,6 @@ func (l *Locator) nearest(p [3]float64) int32 {
 		}
 		l.eachShellBin(c, ring, visit)
 	}
-}
-
-// before reports whether indexed cell a precedes b in (Zone, Cell) order;
-// b < 0 means none.
-func (l *Locator) before(a, b int32) bool {
-	if b < 0 {
-		return true
-	}
-	if l.zoneOf[a] != l.zoneOf[b] {
-		return l.zoneOf[a] < l.zoneOf[b]
-	}
-	return l.cellOf[a] < l.cellOf[b]
 }
 
 // eachShellBin calls fn for every bin of the grid at Chebyshev distance

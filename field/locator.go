@@ -6,17 +6,28 @@ import (
 	"math"
 	"runtime"
 	"sync"
+	"unsafe"
 )
 
 // Locator is a spatial index over the cells of a field: every non-blank
 // cell whose dimension equals the field's (triangles and quads in 2D;
 // tetrahedra, hexahedra, wedges and pyramids in 3D) from every zone.
 //
-// The index is a uniform grid of bins over the bounding boxes of the cells,
-// stored as compressed rows of int32 cell numbers (counting sort, so each
-// bin lists its cells in increasing (Zone, Cell) order). A query visits the
-// one bin holding the point and tests its cells by bounding box and then by
-// the inverse of the cell's shape-function map.
+// Cells are numbered globally, zone after zone (cell c of zone z is
+// base[z] + c), so that number order is (Zone, Cell) order. The index is a
+// uniform grid of bins over the padded bounding boxes of the cells (about
+// binsPerCell bins per cell, fewer when the boxes are much larger than the
+// cells, see binPerBoxVolume), stored as compressed rows filled by counting
+// sort, so each bin lists its cells in increasing number order. Each entry
+// of a bin holds the cell number and the cell's box clipped to the bin and
+// quantized to 1/512 of the bin width, rounded outward (12 bytes; see
+// binEntry). A query visits the one bin holding the point and filters its
+// entries by their quantized boxes without leaving the bin's contiguous
+// memory; the survivors are gathered together (for zones of one cell type
+// straight from the connectivity, without the offsets), then tested in bin
+// order by a quick tetrahedron test, the inverse of the cell's
+// shape-function map and the exact padded box. The exact padded boxes are
+// also kept per cell (6 float64) for CellsInBox and CellSize.
 //
 // A Locator is read-only after NewLocator returns; all its methods are safe
 // for concurrent use. It keeps a reference to the field, whose points and
@@ -25,19 +36,28 @@ type Locator struct {
 	f   *Field
 	dim int
 
-	zoneOf, cellOf []int32   // indexed cell -> zone, cell
-	box            []float64 // 6 per indexed cell: lo x,y,z then hi x,y,z (padded)
+	base   []int32   // zone z's cells are numbers base[z] to base[z+1]-1
+	stride []int32   // zone z's cell c has nodes Conn[s*c:s*c+s], s = stride[z] > 0 (0: read Offsets)
+	box    []float64 // 6 per numbered cell: lo x,y,z then hi x,y,z (padded); lo x = +Inf when not indexed
 
 	lo, inv [3]float64 // grid origin and inverse bin width per axis
 	n       [3]int     // bins per axis
 	start   []int32    // bin b holds items[start[b]:start[b+1]]
-	items   []int32    // indexed cell numbers
+	items   []binEntry // indexed cells with their quantized boxes
 }
 
 // binsPerCell is the number of grid bins per indexed cell. A little below one
 // keeps bins slightly larger than cells, so that a cell's padded box
 // overlaps about 2 bins per axis even on a grid aligned with the mesh.
 const binsPerCell = 0.7
+
+// binPerBoxVolume is the smallest bin volume relative to the mean volume of
+// the cell boxes. It matters for meshes whose boxes overlap much, such as
+// tetrahedra (a box holds several tetrahedra's worth of volume): bins sized
+// by the cell count alone would be far smaller than the boxes, and every
+// cell would be listed in dozens of bins. Hexahedral meshes have bins of
+// about their box volume already and are not affected.
+const binPerBoxVolume = 0.8
 
 // boxPad is the padding of each cell's bounding box relative to the box's
 // largest extent; it exceeds localTol so that every cell that contains a
@@ -53,7 +73,9 @@ var ErrNoCells = errors.New("field: no non-blank cells of the field's dimension"
 // zone, cell and point when a cell has a non-finite coordinate.
 //
 // Cost: linear in the number of cells, spread over GOMAXPROCS goroutines
-// (the index is the same for any number); memory about 90 bytes per cell.
+// (the index is the same for any number); memory about 145 bytes per
+// hexahedron and 155 per tetrahedron (48 for the box, 12 per bin entry,
+// about 8 entries per hexahedron and 9 per tetrahedron).
 func NewLocator(f *Field) (*Locator, error) {
 	return newLocator(f, runtime.GOMAXPROCS(0))
 }
@@ -63,42 +85,43 @@ const buildChunk = 1 << 15
 
 func newLocator(f *Field, workers int) (*Locator, error) {
 	l := &Locator{f: f, dim: f.Dim()}
-	total := 0
-	for _, z := range f.Zones {
+	l.base = make([]int32, len(f.Zones)+1)
+	l.stride = make([]int32, len(f.Zones))
+	total, indexed := 0, 0
+	for zi, z := range f.Zones {
+		l.stride[zi] = uniformStride(z)
+		total += len(z.Types)
+		if total > math.MaxInt32 {
+			return nil, fmt.Errorf("field: %d cells is more than the locator can index", total)
+		}
+		l.base[zi+1] = int32(total)
 		for c := range z.Types {
 			if l.indexable(z, c) {
-				total++
+				indexed++
 			}
 		}
 	}
-	if total == 0 {
+	if indexed == 0 {
 		return nil, ErrNoCells
 	}
-	if total > math.MaxInt32 {
-		return nil, fmt.Errorf("field: %d cells is more than the locator can index", total)
-	}
-	l.zoneOf = make([]int32, total)
-	l.cellOf = make([]int32, total)
 	l.box = make([]float64, 6*total)
-	g := 0
-	for zi, z := range f.Zones {
-		for c := range z.Types {
-			if l.indexable(z, c) {
-				l.zoneOf[g], l.cellOf[g] = int32(zi), int32(c)
-				g++
-			}
-		}
-	}
 	workers = max(1, min(workers, total/buildChunk, 16))
 	errs := make([]error, workers)
 	parallel(total, workers, func(w, lo, hi int) {
+		zi, c := l.ref(int32(lo))
 		for g := lo; g < hi; g++ {
-			zi, c := l.zoneOf[g], int(l.cellOf[g])
+			for c >= len(f.Zones[zi].Types) {
+				zi, c = zi+1, 0
+			}
 			z := f.Zones[zi]
-			if err := l.cellBox(z, c, l.box[6*g:6*g+6]); err != nil {
+			b := l.box[6*g : 6*g+6 : 6*g+6]
+			if !l.indexable(z, c) {
+				b[0], b[3] = math.Inf(1), math.Inf(-1)
+			} else if err := l.cellBox(z, c, b); err != nil {
 				errs[w] = fmt.Errorf("field: zone %d (%q): cell %d: %w", zi, z.Name, c, err)
 				return
 			}
+			c++
 		}
 	})
 	for _, err := range errs { // the first chunk's error: the lowest cell
@@ -111,6 +134,52 @@ func newLocator(f *Field, workers int) (*Locator, error) {
 	}
 	return l, nil
 }
+
+// uniformStride returns s when every cell of z has s nodes stored in
+// order (Offsets[c] = s·c for every c), else 0.
+func uniformStride(z *Zone) int32 {
+	if len(z.Offsets) < 2 || z.Offsets[0] != 0 {
+		return 0
+	}
+	s := z.Offsets[1]
+	if s <= 0 || s > maxCellNodes {
+		return 0
+	}
+	for c, o := range z.Offsets {
+		if int64(o) != int64(s)*int64(c) {
+			return 0
+		}
+	}
+	return s
+}
+
+// gather fills g with cell c of zone zi, an indexed cell, reading the
+// zone's offsets only when its cells are not of uniform size.
+func (l *Locator) gather(zi, c int, g *cellGeom) {
+	z := l.f.Zones[zi]
+	if s := int(l.stride[zi]); s > 0 {
+		z.gatherNodes(z.Types[c], z.Conn[s*c:s*c+s], g)
+		return
+	}
+	z.gather(c, g)
+}
+
+// ref returns the zone and cell of global cell number g.
+func (l *Locator) ref(g int32) (zone, cell int) {
+	lo, hi := 0, len(l.base)-2 // the zone is the last z with base[z] <= g
+	for lo < hi {
+		m := int(uint(lo+hi+1) >> 1)
+		if l.base[m] <= g {
+			lo = m
+		} else {
+			hi = m - 1
+		}
+	}
+	return lo, int(g - l.base[lo])
+}
+
+// indexed reports whether global cell g is in the index.
+func (l *Locator) indexed(g int) bool { return l.box[6*g] <= l.box[6*g+3] }
 
 // parallel splits [0,n) into workers contiguous chunks, in order, and runs
 // fn on each in its own goroutine (inline when workers is 1).
@@ -136,36 +205,27 @@ func (l *Locator) indexable(z *Zone, c int) bool {
 	return supported(t) && t.Dim() == l.dim && (z.Blank == nil || !z.Blank[c])
 }
 
-// cellBox stores the padded bounding box of cell c of z in b. In 2D the z
-// range is unbounded.
+// cellBox stores the padded bounding box of cell c of z in b (see
+// cellGeom.paddedBox). In 2D the z range is unbounded.
 func (l *Locator) cellBox(z *Zone, c int, b []float64) error {
-	lo := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}
-	hi := [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
-	for _, p := range z.CellNodes(c) {
-		for k := 0; k < 3; k++ {
-			v := z.Points[3*int(p)+k]
-			if v-v != 0 { // NaN or ±Inf
-				return fmt.Errorf("point %d: coordinate %d is %v", p, k, v)
-			}
-			if v < lo[k] {
-				lo[k] = v
-			}
-			if v > hi[k] {
-				hi[k] = v
+	var g cellGeom
+	z.gather(c, &g)
+	sum := 0.0 // NaN or ±Inf when a coordinate is
+	for i := 0; i < g.n; i++ {
+		sum += g.x[i][0] + g.x[i][1] + g.x[i][2]
+	}
+	if sum-sum != 0 {
+		for _, p := range z.CellNodes(c) {
+			for k := 0; k < 3; k++ {
+				if v := z.Points[3*int(p)+k]; v-v != 0 {
+					return fmt.Errorf("point %d: coordinate %d is %v", p, k, v)
+				}
 			}
 		}
 	}
-	h := 0.0
-	for k := 0; k < l.dim; k++ {
-		h = math.Max(h, hi[k]-lo[k])
-	}
-	pad := boxPad*h + 1e-300
-	for k := 0; k < 3; k++ {
-		b[k], b[3+k] = lo[k]-pad, hi[k]+pad
-	}
-	if l.dim == 2 {
-		b[2], b[5] = math.Inf(-1), math.Inf(1)
-	}
+	lo, hi := g.paddedBox(l.dim)
+	copy(b[:3], lo[:])
+	copy(b[3:], hi[:])
 	return nil
 }
 
@@ -174,13 +234,19 @@ func (l *Locator) cellBox(z *Zone, c int, b []float64) error {
 // chunk; chunk w's entries of a bin follow those of chunks < w, so every bin
 // lists its cells in increasing order whatever the number of workers.
 func (l *Locator) buildGrid(workers int) error {
-	ncell := len(l.zoneOf)
+	ncell := len(l.box) / 6
 	var lo, hi [3]float64
 	for k := 0; k < 3; k++ {
 		lo[k], hi[k] = math.Inf(1), math.Inf(-1)
 	}
+	indexed, boxVol := 0, 0.0
 	for g := 0; g < ncell; g++ {
+		if !l.indexed(g) {
+			continue
+		}
+		indexed++
 		b := l.box[6*g : 6*g+6 : 6*g+6]
+		v := 1.0
 		for k := 0; k < l.dim; k++ {
 			if b[k] < lo[k] {
 				lo[k] = b[k]
@@ -188,21 +254,26 @@ func (l *Locator) buildGrid(workers int) error {
 			if b[3+k] > hi[k] {
 				hi[k] = b[3+k]
 			}
+			v *= b[3+k] - b[k]
 		}
+		boxVol += v
 	}
-	nb := l.sizeGrid(lo, hi, ncell)
+	nb := l.sizeGrid(lo, hi, indexed, boxVol/float64(indexed))
 	counts := make([][]int32, workers)
 	totals := make([]int, workers)
 	parallel(ncell, workers, func(w, a, b int) {
 		cnt := make([]int32, nb)
 		total := 0
 		for g := a; g < b; g++ {
+			if !l.indexed(g) {
+				continue
+			}
 			i0, i1 := l.binRange(l.box[6*g:6*g+3], l.box[6*g+3:6*g+6])
 			total += (i1[0] - i0[0] + 1) * (i1[1] - i0[1] + 1) * (i1[2] - i0[2] + 1)
 			if total > math.MaxInt32 {
 				break
 			}
-			l.eachBin(i0, i1, func(b int) { cnt[b]++ })
+			l.eachBin(i0, i1, func(b int, _ [3]int) { cnt[b]++ })
 		}
 		counts[w], totals[w] = cnt, total
 	})
@@ -225,12 +296,25 @@ func (l *Locator) buildGrid(workers int) error {
 		}
 	}
 	l.start[nb] = next
-	l.items = make([]int32, total)
+	l.items = make([]binEntry, total)
 	parallel(ncell, workers, func(w, a, b int) {
 		cur := counts[w]
 		for g := a; g < b; g++ {
-			i0, i1 := l.binRange(l.box[6*g:6*g+3], l.box[6*g+3:6*g+6])
-			l.eachBin(i0, i1, func(b int) { l.items[cur[b]] = int32(g); cur[b]++ })
+			if !l.indexed(g) {
+				continue
+			}
+			box := l.box[6*g : 6*g+6 : 6*g+6]
+			var flo, fhi [3]float64
+			for k := 0; k < l.dim; k++ {
+				flo[k], fhi[k] = l.binCoord(k, box[k]), l.binCoord(k, box[3+k])
+			}
+			i0, i1 := l.binRange(box[:3], box[3:])
+			l.eachBin(i0, i1, func(b int, i [3]int) {
+				e := &l.items[cur[b]]
+				e.id = int32(g)
+				e.lo, e.hi = quantizedBox(&flo, &fhi, &i, l.dim)
+				cur[b]++
+			})
 		}
 	})
 	return nil
@@ -243,8 +327,10 @@ func (l *Locator) binCoord(k int, x float64) float64 {
 }
 
 // sizeGrid chooses bins of equal width s on every axis such that the box
-// [lo,hi] holds about binsPerCell*ncell of them, and returns the bin count.
-func (l *Locator) sizeGrid(lo, hi [3]float64, ncell int) int {
+// [lo,hi] holds about binsPerCell*ncell of them, but each at least
+// binPerBoxVolume times the mean volume of a cell box (meanBox), and returns
+// the bin count.
+func (l *Locator) sizeGrid(lo, hi [3]float64, ncell int, meanBox float64) int {
 	vol := 1.0
 	maxExt := 0.0
 	for k := 0; k < l.dim; k++ {
@@ -253,7 +339,7 @@ func (l *Locator) sizeGrid(lo, hi [3]float64, ncell int) int {
 	for k := 0; k < l.dim; k++ {
 		vol *= math.Max(hi[k]-lo[k], 1e-6*maxExt)
 	}
-	s := math.Pow(vol/(binsPerCell*float64(ncell)), 1/float64(l.dim))
+	s := math.Pow(max(vol/(binsPerCell*float64(ncell)), binPerBoxVolume*meanBox), 1/float64(l.dim))
 	nb := 1
 	for k := 0; k < 3; k++ {
 		l.n[k], l.lo[k], l.inv[k] = 1, 0, 0
@@ -295,13 +381,21 @@ func (l *Locator) binRange(lo, hi []float64) (i0, i1 [3]int) {
 	return i0, i1
 }
 
-func (l *Locator) eachBin(i0, i1 [3]int, fn func(b int)) {
-	for c := i0[2]; c <= i1[2]; c++ {
-		for b := i0[1]; b <= i1[1]; b++ {
-			row := (c*l.n[1] + b) * l.n[0]
-			for a := i0[0]; a <= i1[0]; a++ {
-				fn(row + a)
+// eachBin calls fn for every bin of the inclusive coordinate range
+// [i0,i1], in increasing bin order, with its number and coordinates.
+func (l *Locator) eachBin(i0, i1 [3]int, fn func(b int, i [3]int)) {
+	for z := i0[2]; z <= i1[2]; z++ {
+		for y := i0[1]; y <= i1[1]; y++ {
+			row := (z*l.n[1] + y) * l.n[0]
+			for x := i0[0]; x <= i1[0]; x++ {
+				fn(row+x, [3]int{x, y, z})
 			}
 		}
 	}
+}
+
+// indexBytes returns the memory held by the index itself (boxes, zone
+// bases, bin offsets and entries), not counting the field.
+func (l *Locator) indexBytes() int {
+	return 8*len(l.box) + 4*len(l.base) + 4*len(l.stride) + 4*len(l.start) + int(unsafe.Sizeof(binEntry{}))*len(l.items)
 }

@@ -372,3 +372,25 @@ func meanEdge(z *field.Zone, c int) float64 {
 	}
 	return sum / float64(n)
 }
+
+// Reference: a zone without cells between two others shifts no cell
+// numbers: location agrees with brute force on both sides of it.
+func TestLocateAcrossEmptyZone(t *testing.T) {
+	a, b := splitBox(4)
+	l := mustLocator(t, a, &field.Zone{Name: "empty", Offsets: []int32{0}}, b)
+	rng := rand.New(rand.NewPCG(27, 28))
+	found := [3]int{}
+	for _, p := range probePoints(b, 3, rng, 500) {
+		got, ok := l.Locate(p)
+		want, wok := bruteLocate(l, p)
+		if ok != wok || got != want {
+			t.Fatalf("point %v: Locate = %+v,%v; brute force %+v,%v", p, got, ok, want, wok)
+		}
+		if ok {
+			found[got.Zone]++
+		}
+	}
+	if found[0] == 0 || found[2] == 0 {
+		t.Fatalf("points found per zone %v: both halves must be hit", found)
+	}
+}

@@ -35,14 +35,19 @@ func (z *Zone) gather(c int, g *cellGeom) bool {
 	if !supported(t) {
 		return false
 	}
+	z.gatherNodes(t, z.Conn[z.Offsets[c]:z.Offsets[c+1]], g)
+	return true
+}
+
+// gatherNodes fills g with a cell of supported type t and the given nodes
+// (at most maxCellNodes).
+func (z *Zone) gatherNodes(t CellType, nodes []int32, g *cellGeom) {
 	g.t, g.dim = t, t.Dim()
-	nodes := z.Conn[z.Offsets[c]:z.Offsets[c+1]]
 	g.n = len(nodes)
 	for i, p := range nodes {
 		q := z.Points[3*p : 3*p+3 : 3*p+3]
 		g.x[i] = [3]float64{q[0], q[1], q[2]}
 	}
-	return true
 }
 
 // shapeValues stores in N the shape functions of type t at local
@@ -167,6 +172,33 @@ func (g *cellGeom) position(r [3]float64) (x [3]float64) {
 	return x
 }
 
+// paddedBox returns the bounding box of the nodes of g enlarged on every
+// side by boxPad times its largest extent over the first dim axes (plus
+// 1e-300, so that a point cell still has a box). For dim 2 the z range is
+// unbounded. A NaN coordinate makes the box NaN, which holds no point. The
+// Locator's per-cell boxes, its query-time box test and CellMap all use
+// it, so they agree bit for bit.
+func (g *cellGeom) paddedBox(dim int) (lo, hi [3]float64) {
+	lo, hi = g.x[0], g.x[0]
+	for i := 1; i < g.n; i++ {
+		x := &g.x[i] // builtin min and max: no branches to mispredict
+		lo = [3]float64{min(lo[0], x[0]), min(lo[1], x[1]), min(lo[2], x[2])}
+		hi = [3]float64{max(hi[0], x[0]), max(hi[1], x[1]), max(hi[2], x[2])}
+	}
+	h := 0.0
+	for k := 0; k < dim; k++ {
+		h = max(h, hi[k]-lo[k])
+	}
+	pad := boxPad*h + 1e-300
+	for k := 0; k < 3; k++ {
+		lo[k], hi[k] = lo[k]-pad, hi[k]+pad
+	}
+	if dim == 2 {
+		lo[2], hi[2] = math.Inf(-1), math.Inf(1)
+	}
+	return lo, hi
+}
+
 // size returns the largest extent of the bounding box of g.
 func (g *cellGeom) size() float64 {
 	var h float64
@@ -238,7 +270,7 @@ type inverseMap struct {
 	j0     [3][3]float64 // Jacobian at r0
 	affine bool          // the bilinear and trilinear coefficients are 0
 	cof    [3][3]float64 // adjugate of j0 over its determinant (affine)
-	good   bool          // j0 is regular (solve3's test); cof is set when good and affine
+	good   bool          // affine only: j0 is regular (solve3's test), and cof is set
 }
 
 // init prepares the inverse of the map of g.
@@ -247,10 +279,10 @@ func (im *inverseMap) init(g *cellGeom) {
 	if g.t == Triangle || g.t == Tetra {
 		im.initSimplex(g)
 	} else {
-		im.m = g.multilinear()
+		g.multilinearInto(&im.m)
 		im.h = im.m.scale()
 		im.r0 = start(g.t)
-		im.x0, im.j0 = im.m.eval(im.r0, g.dim)
+		im.m.evalInto(im.r0, g.dim, &im.x0, &im.j0)
 		im.affine = true
 		for i := 4; i < 8; i++ {
 			for k := 0; k < g.dim; k++ {
@@ -260,13 +292,16 @@ func (im *inverseMap) init(g *cellGeom) {
 			}
 		}
 	}
+	if !im.affine {
+		return // good and cof serve only the direct inverse
+	}
 	J := &im.j0
 	c0 := J[1][1]*J[2][2] - J[1][2]*J[2][1]
 	c1 := J[1][2]*J[2][0] - J[1][0]*J[2][2]
 	c2 := J[1][0]*J[2][1] - J[1][1]*J[2][0]
 	det := J[0][0]*c0 + J[0][1]*c1 + J[0][2]*c2
 	im.good = regular(J, det)
-	if !im.good || !im.affine {
+	if !im.good {
 		return
 	}
 	inv := 1 / det
@@ -329,7 +364,13 @@ func (im *inverseMap) local(p [3]float64) (r [3]float64, ok bool) {
 			for i := 0; i < im.dim; i++ {
 				res[i] = p[i] - im.x0[i]
 			}
-			d, good = solve3(im.j0, res)
+			J := &im.j0
+			d[0], d[1], d[2], good = solve3s(J[0][0], J[0][1], J[0][2], J[1][0], J[1][1], J[1][2], J[2][0], J[2][1], J[2][2], res[0], res[1], res[2])
+		} else if im.dim == 3 {
+			d[0], d[1], d[2], good = im.m.newtonStep3(r[0], r[1], r[2], &p)
+			if !good {
+				_, res, _ = im.m.newtonStep(r, p, im.dim)
+			}
 		} else {
 			d, res, good = im.m.newtonStep(r, p, im.dim)
 		}
@@ -388,6 +429,13 @@ type multilinearMap [8][3]float64
 
 // multilinear returns the monomial coefficients of the map of g.
 func (g *cellGeom) multilinear() (m multilinearMap) {
+	g.multilinearInto(&m)
+	return m
+}
+
+// multilinearInto stores the monomial coefficients of the map of g in m
+// (multilinear without copying the result).
+func (g *cellGeom) multilinearInto(m *multilinearMap) {
 	X := &g.x
 	for k := 0; k < 3; k++ {
 		var a, b, c, d, e, f, gg, h float64
@@ -414,12 +462,17 @@ func (g *cellGeom) multilinear() (m multilinearMap) {
 		m[0][k], m[1][k], m[2][k], m[3][k] = a, b, c, d
 		m[4][k], m[5][k], m[6][k], m[7][k] = e, f, gg, h
 	}
-	return m
 }
 
 // eval returns x(r) and J = ∂x/∂r, restricted to dim rows and columns (the
 // rest of J is the identity).
 func (m *multilinearMap) eval(r [3]float64, dim int) (x [3]float64, J [3][3]float64) {
+	m.evalInto(r, dim, &x, &J)
+	return x, J
+}
+
+// evalInto is eval storing x and every entry of J through pointers.
+func (m *multilinearMap) evalInto(r [3]float64, dim int, x *[3]float64, J *[3][3]float64) {
 	u, v, w := r[0], r[1], r[2]
 	for k := 0; k < dim; k++ {
 		a, b, c, d, e, f, g, h := m[0][k], m[1][k], m[2][k], m[3][k], m[4][k], m[5][k], m[6][k], m[7][k]
@@ -429,10 +482,10 @@ func (m *multilinearMap) eval(r [3]float64, dim int) (x [3]float64, J [3][3]floa
 		J[k][2] = d + f*v + g*u + h*u*v
 	}
 	if dim == 2 {
+		x[2] = 0
 		J[0][2], J[1][2] = 0, 0
 		J[2] = [3]float64{0, 0, 1}
 	}
-	return x, J
 }
 
 // newtonStep returns the Newton step d = J⁻¹ (p - x(r)) at r, the residual
@@ -445,6 +498,44 @@ func (m *multilinearMap) newtonStep(r, p [3]float64, dim int) (d, res [3]float64
 	}
 	d, ok = solve3(J, res)
 	return d, res, ok
+}
+
+// newtonStep3 is newtonStep for dim 3 written out on scalars (same
+// operations in the same order, so the same bits), without the residual;
+// it is the inner loop of locating points in hexahedra, wedges and
+// pyramids.
+func (m *multilinearMap) newtonStep3(u, v, w float64, p *[3]float64) (d0, d1, d2 float64, ok bool) {
+	var x, J0, J1, J2 [3]float64
+	for k := 0; k < 3; k++ {
+		a, b, c, d, e, f, g, h := m[0][k], m[1][k], m[2][k], m[3][k], m[4][k], m[5][k], m[6][k], m[7][k]
+		x[k] = p[k] - (a + b*u + c*v + d*w + e*u*v + f*v*w + g*w*u + h*u*v*w)
+		J0[k] = b + e*v + g*w + h*v*w
+		J1[k] = c + e*u + f*w + h*u*w
+		J2[k] = d + f*v + g*u + h*u*v
+	}
+	// solve3 on rows J[k] = (J0[k], J1[k], J2[k]).
+	return solve3s(J0[0], J1[0], J2[0], J0[1], J1[1], J2[1], J0[2], J1[2], J2[2], x[0], x[1], x[2])
+}
+
+// solve3s is solve3 on scalars (same operations in the same order, so the
+// same bits), which the register calling convention passes without
+// copying arrays.
+func solve3s(j00, j01, j02, j10, j11, j12, j20, j21, j22, b0, b1, b2 float64) (d0, d1, d2 float64, ok bool) {
+	c0 := j11*j22 - j12*j21
+	c1 := j12*j20 - j10*j22
+	c2 := j10*j21 - j11*j20
+	det := j00*c0 + j01*c1 + j02*c2
+	scale := math.Abs(j00) + math.Abs(j01) + math.Abs(j02)
+	scale *= math.Abs(j10) + math.Abs(j11) + math.Abs(j12)
+	scale *= math.Abs(j20) + math.Abs(j21) + math.Abs(j22)
+	if !(math.Abs(det) > 1e-14*scale) {
+		return 0, 0, 0, false
+	}
+	inv := 1 / det
+	d0 = (b0*c0 + b1*(j02*j21-j01*j22) + b2*(j01*j12-j02*j11)) * inv
+	d1 = (b0*c1 + b1*(j00*j22-j02*j20) + b2*(j02*j10-j00*j12)) * inv
+	d2 = (b0*c2 + b1*(j01*j20-j00*j21) + b2*(j00*j11-j01*j10)) * inv
+	return d0, d1, d2, true
 }
 
 // scale returns a length of the cell: the largest component of its edge

@@ -1,5 +1,7 @@
 package field
 
+import "math"
+
 // Simplices appends to dst a decomposition of cell c of z into simplices and
 // returns the extended slice: tetrahedra for volume cells, triangles (the
 // fourth vertex left zero) for 2D cells.
@@ -67,3 +69,52 @@ func (z *Zone) centroid(nodes []int32) [3]float64 {
 
 // Centroid returns the mean of the nodes of cell c of z.
 func (z *Zone) Centroid(c int) [3]float64 { return z.centroid(z.CellNodes(c)) }
+
+// tetOutside reports whether p is clearly outside the tetrahedron g: some
+// barycentric coordinate, computed from the signed volumes of p with each
+// face, is below -1e-6. It is a quick, conservative rejection before the
+// inverse map: it answers only for a well-shaped tetrahedron (volume
+// determinant D at least 1e-3 h³, h the largest edge-vector component),
+// where the rounding of both computations is far below the margin, so a
+// point it rejects is one the inverse map (tolerance 1e-9) rejects too.
+func (g *cellGeom) tetOutside(p [3]float64) bool {
+	x0 := &g.x[0]
+	var e1, e2, e3, b [3]float64
+	for k := 0; k < 3; k++ {
+		e1[k], e2[k], e3[k] = g.x[1][k]-x0[k], g.x[2][k]-x0[k], g.x[3][k]-x0[k]
+		b[k] = p[k] - x0[k]
+	}
+	n1 := cross(e2, e3)
+	D := e1[0]*n1[0] + e1[1]*n1[1] + e1[2]*n1[2]
+	sig, ad := 1.0, D
+	if D < 0 {
+		sig, ad = -1, -D
+	}
+	m := -1e-6 * ad
+	s1 := sig * (b[0]*n1[0] + b[1]*n1[1] + b[2]*n1[2])
+	out := s1 < m
+	if !out {
+		n2 := cross(e3, e1)
+		s2 := sig * (b[0]*n2[0] + b[1]*n2[1] + b[2]*n2[2])
+		out = s2 < m
+		if !out {
+			n3 := cross(e1, e2)
+			s3 := sig * (b[0]*n3[0] + b[1]*n3[1] + b[2]*n3[2])
+			out = s3 < m || ad-s1-s2-s3 < m
+		}
+	}
+	if !out {
+		return false
+	}
+	// Trust the rejection only for a well-shaped tetrahedron.
+	h := 0.0
+	for k := 0; k < 3; k++ {
+		h = max(h, math.Abs(e1[k]), math.Abs(e2[k]), math.Abs(e3[k]))
+	}
+	return ad >= 1e-3*h*h*h
+}
+
+// cross returns the cross product a × b.
+func cross(a, b [3]float64) [3]float64 {
+	return [3]float64{a[1]*b[2] - a[2]*b[1], a[2]*b[0] - a[0]*b[2], a[0]*b[1] - a[1]*b[0]}
+}
