@@ -19,8 +19,9 @@ import (
 // speed target of the forces command compares: loading a binary legacy VTK
 // file of a structured hexahedral box on [-1,1]³ (100³ = 10⁶ cells; 171³ ≈
 // 5·10⁶ with FARFORCE_BIG=1) with a point velocity and pressure, against
-// cutting one default sphere (radius 0.6, facets following the cell size)
-// through it and integrating the forces. Every phase is timed in process
+// cutting one default sphere (radius 0.6, facets following the cell size;
+// FARFORCE_FACETS=N fixes about N facets instead) through it and
+// integrating the forces. Every phase is timed in process
 // CPU time (all threads; a loaded machine does not inflate it) and
 // reported per iteration: load, locator build, sampler set-up, cut, and
 // the integration with the sampler's lazily recovered gradients built
@@ -37,7 +38,11 @@ func BenchmarkScaleCutVsLoad(b *testing.B) {
 	if st, err := os.Stat(path); err == nil {
 		b.ReportMetric(float64(st.Size())/1e6, "file-MB")
 	}
-	shape, err := surface.ParseSpec("sphere center=0.013,-0.007,0.004 radius=0.6")
+	spec := "sphere center=0.013,-0.007,0.004 radius=0.6"
+	if n := os.Getenv("FARFORCE_FACETS"); n != "" {
+		spec += " facets=" + n // e.g. 100000, the facet count the speed target names
+	}
+	shape, err := surface.ParseSpec(spec)
 	if err != nil {
 		b.Fatal(err)
 	}
