@@ -62,11 +62,12 @@ func benchmarkBuild(b *testing.B, name string) {
 func BenchmarkLocatorBuildHexa(b *testing.B)  { benchmarkBuild(b, "hexa") }
 func BenchmarkLocatorBuildTetra(b *testing.B) { benchmarkBuild(b, "tetra") }
 
-// benchmarkLocate times Locate on random points (every query a cache miss)
-// or on points along a fine spiral over a sphere (coherent queries, as a
-// surface cut makes them). Besides wall time it reports the CPU time of the
-// benchmark thread, which a loaded machine does not inflate.
-func benchmarkLocate(b *testing.B, name string, coherent bool) {
+// benchmarkLocate times Locate (or CellSize, when size is set) on random
+// points (every query a cache miss) or on points along a fine spiral over
+// a sphere (coherent queries, as a surface cut makes them). Besides wall
+// time it reports the CPU time of the benchmark thread, which a loaded
+// machine does not inflate.
+func benchmarkLocate(b *testing.B, name string, coherent, size bool) {
 	z := benchZone(b, name)
 	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
 	if err != nil {
@@ -92,7 +93,11 @@ func benchmarkLocate(b *testing.B, name string, coherent bool) {
 	b.ResetTimer()
 	i := 0
 	for b.Loop() {
-		if _, ok := l.Locate(pts[i&(len(pts)-1)]); !ok {
+		if size {
+			if h := l.CellSize(pts[i&(len(pts)-1)]); !(h > 0) {
+				b.Fatal("no cell size")
+			}
+		} else if _, ok := l.Locate(pts[i&(len(pts)-1)]); !ok {
 			b.Fatal("not located")
 		}
 		i++
@@ -101,10 +106,12 @@ func benchmarkLocate(b *testing.B, name string, coherent bool) {
 	b.ReportMetric(float64((fieldtest.ThreadCPU()-cpu0).Nanoseconds())/float64(b.N), "cpu-ns/query")
 }
 
-func BenchmarkLocateHexaRandom(b *testing.B)    { benchmarkLocate(b, "hexa", false) }
-func BenchmarkLocateTetraRandom(b *testing.B)   { benchmarkLocate(b, "tetra", false) }
-func BenchmarkLocateHexaCoherent(b *testing.B)  { benchmarkLocate(b, "hexa", true) }
-func BenchmarkLocateTetraCoherent(b *testing.B) { benchmarkLocate(b, "tetra", true) }
+func BenchmarkLocateHexaRandom(b *testing.B)      { benchmarkLocate(b, "hexa", false, false) }
+func BenchmarkLocateTetraRandom(b *testing.B)     { benchmarkLocate(b, "tetra", false, false) }
+func BenchmarkLocateHexaCoherent(b *testing.B)    { benchmarkLocate(b, "hexa", true, false) }
+func BenchmarkLocateTetraCoherent(b *testing.B)   { benchmarkLocate(b, "tetra", true, false) }
+func BenchmarkCellSizeHexaCoherent(b *testing.B)  { benchmarkLocate(b, "hexa", true, true) }
+func BenchmarkCellSizeTetraCoherent(b *testing.B) { benchmarkLocate(b, "tetra", true, true) }
 
 // benchmarkSample times Value plus Gradient of a scalar at 4096 random
 // located points of a perturbed 40³ hexahedral box, with the per-cell or

@@ -57,12 +57,17 @@
 // box holds the point. Locate filters the point's bin by these boxes,
 // gathers the survivors four at a time (their memory reads overlap) and
 // returns the first whose padded box and inverse map contain the point:
-// the lowest (Zone, Cell)
-// among all cells containing it, so points on shared faces, edges and
-// vertices resolve deterministically. CellsInBox reports each overlapping
-// cell once (from the bin holding the low corner of the overlap) and
-// sorts. Everything is read-only after the build and safe for concurrent
-// use.
+// the lowest (Zone, Cell) among all cells containing it, so points on
+// shared faces, edges and vertices resolve deterministically. CellsInBox
+// reports each overlapping cell once (from the bin holding the low corner
+// of the overlap) and sorts, unless the query box lies in one bin, whose
+// list is already sorted. The build takes three parallel passes over
+// contiguous chunks of cells: each cell's padded box straight from the
+// points through the connectivity, the entry count per bin, then the
+// entries with their quantized boxes (assembled from per-axis values
+// computed once per cell); the grid size depends only on the boxes, so
+// the index is the same for any number of workers. Everything is
+// read-only after the build and safe for concurrent use.
 //
 // # Sampling point data
 //

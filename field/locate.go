@@ -164,7 +164,9 @@ func (m *CellMap) Local(p [3]float64) (Location, bool) {
 // CellsInBox appends to dst the indexed cells whose padded bounding box
 // overlaps the box [lo,hi], sorted by (Zone, Cell) without duplicates, and
 // returns the extended slice. In 2D the z range is ignored. The test is by
-// bounding box only: a returned cell may miss the box itself.
+// bounding box only: a returned cell may miss the box itself. Cost: the
+// entries of the bins the box overlaps, plus a sort of the result when
+// there are several bins.
 func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
 	for k := 0; k < l.dim; k++ {
 		if !(lo[k] <= hi[k]) {
@@ -173,6 +175,7 @@ func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
 	}
 	first := len(dst)
 	i0, i1 := l.binRange(lo[:], hi[:])
+	one := i0 == i1 // one bin: it lists each cell once, in increasing order
 	q := [6]float64{lo[0], lo[1], lo[2], hi[0], hi[1], hi[2]}
 	if l.dim == 2 {
 		q[2], q[5] = math.Inf(-1), math.Inf(1)
@@ -190,7 +193,7 @@ func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
 					// Report each cell once: from the bin holding the low
 					// corner of the intersection of the two boxes.
 					dup := false
-					for k := 0; k < l.dim; k++ {
+					for k := 0; k < l.dim && !one; k++ {
 						if l.binIndex(k, math.Max(b[k], q[k])) != bin[k] {
 							dup = true
 							break
@@ -204,7 +207,9 @@ func (l *Locator) CellsInBox(lo, hi [3]float64, dst []CellRef) []CellRef {
 			}
 		}
 	}
-	slices.SortFunc(dst[first:], compareRefs)
+	if !one {
+		slices.SortFunc(dst[first:], compareRefs)
+	}
 	return dst
 }
 
@@ -308,26 +313,4 @@ func (l *Locator) boxDist2(g int32, p [3]float64) float64 {
 		}
 	}
 	return d
-}
-
-// meanEdge returns the mean length of the edges of cell c (each edge of a
-// volume cell appears in two faces, so the mean over face sides is the mean
-// over edges).
-func (z *Zone) meanEdge(c int) float64 {
-	nodes := z.CellNodes(c)
-	sum, n := 0.0, 0
-	for _, f := range z.Types[c].Faces() {
-		for i := range f {
-			a, b := z.Point(nodes[f[i]]), z.Point(nodes[f[(i+1)%len(f)]])
-			sum += math.Sqrt(norm2([3]float64{b[0] - a[0], b[1] - a[1], b[2] - a[2]}))
-			n++
-			if len(f) == 2 {
-				break // a 2D cell's "faces" are its edges
-			}
-		}
-	}
-	if n == 0 {
-		return 0
-	}
-	return sum / float64(n)
 }

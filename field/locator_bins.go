@@ -56,17 +56,15 @@ func (e *binEntry) mayHold(q uint32) bool {
 	return ((q|laneGuards)-e.lo)&((e.hi|laneGuards)-q)&laneGuards == laneGuards
 }
 
-// quantizedBox returns the lanes of the padded box [lo,hi] of one cell
-// clipped to the bin with coordinates i. flo and fhi are the continuous bin
-// coordinates (Locator.binCoord) of the box's corners on the dim first
-// axes; other axes cover the whole bin.
-func quantizedBox(flo, fhi *[3]float64, i *[3]int, dim int) (lo, hi uint32) {
-	lo, hi = fullLo, fullHi
-	for k := 0; k < dim; k++ {
-		shift := 10 * uint(k)
-		lo |= quantize(flo[k]-float64(i[k])) << shift
-		hi &^= (binLevels - 1) << shift
-		hi |= quantize(fhi[k]-float64(i[k])) << shift
+// axisLanes stores in dst[j] the lane, on axis k, of coordinate x of a
+// box corner quantized within bin i0+j of that axis:
+// quantize(binCoord(k,x) - (i0+j)) shifted to bit 10·k. A cell's entry in
+// the bin with coordinates i has as lanes those of its padded box [lo,hi]
+// clipped to the bin: the lo lanes of lo[k] and the hi lanes of hi[k] for
+// the first dim axes, and the whole bin (0 and binLevels-1) on the others.
+func (l *Locator) axisLanes(dst []uint32, k int, x float64, i0 int) {
+	f := l.binCoord(k, x)
+	for j := range dst {
+		dst[j] = quantize(f-float64(i0+j)) << (10 * uint(k))
 	}
-	return lo, hi
 }

@@ -211,3 +211,139 @@ func TestUniformStride(t *testing.T) {
 		t.Fatalf("empty zone: stride %d, want 0", s)
 	}
 }
+
+// Exact: the build's boxes, computed straight from the points, are bit for
+// bit the padded boxes of the gathered cells that Locate and CellMap use,
+// for every cell type, for negative coordinates and negative zeros, and in
+// 2D; cells left out have an empty box.
+func TestBuildBoxesArePaddedBoxes(t *testing.T) {
+	negZero := func(z *Zone, dim int) *Zone { // also -0 on the first dim axes
+		for i, v := range z.Points {
+			if i%3 >= dim {
+				continue
+			}
+			z.Points[i] = v - 0.5
+			if i%5 == 0 {
+				z.Points[i] = math.Copysign(0, -1)
+			}
+		}
+		return z
+	}
+	mixed := hexGrid(3, 6)
+	mixed.AddCell(Tetra, 0, 1, 4, 16)
+	mixed.AddCell(Wedge, 0, 1, 4, 16, 17, 20)
+	mixed.AddCell(Pyramid, 0, 1, 5, 4, 16)
+	mixed.AddCell(Quad, 0, 1, 5, 4) // a face: left out in 3D
+	mixed.Blank = make([]bool, mixed.NumCells())
+	mixed.Blank[5] = true
+	quads := &Zone{Name: "quads"}
+	for i := 0; i < 16; i++ {
+		quads.Points = append(quads.Points, float64(i%4)/3, float64(i/4)/3, 0)
+	}
+	for j := 0; j < 3; j++ {
+		for i := 0; i < 3; i++ {
+			p := int32(4*j + i)
+			quads.AddCell(Quad, p, p+1, p+5, p+4)
+		}
+	}
+	quads.AddCell(Triangle, 0, 1, 5)
+	for _, f := range []*Field{{Zones: []*Zone{negZero(hexGrid(4, 7), 3), mixed}}, {Zones: []*Zone{negZero(quads, 2)}}} {
+		l, err := newLocator(f, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for zi, z := range f.Zones {
+			for c := range z.Types {
+				b := l.box[6*(int(l.base[zi])+c):][:6]
+				if !l.indexable(z, c) {
+					if !(b[0] > b[3]) {
+						t.Fatalf("zone %d cell %d: left out, but box %v", zi, c, b)
+					}
+					continue
+				}
+				var g cellGeom
+				z.gather(c, &g)
+				lo, hi := g.paddedBox(l.dim)
+				for k := 0; k < 3; k++ {
+					if math.Float64bits(b[k]) != math.Float64bits(lo[k]) || math.Float64bits(b[3+k]) != math.Float64bits(hi[k]) {
+						t.Fatalf("zone %d cell %d: box %v, paddedBox %v %v", zi, c, b, lo, hi)
+					}
+				}
+			}
+		}
+	}
+}
+
+// Exact: CellsInBox on boxes inside one bin (the path that neither removes
+// duplicates nor sorts) returns exactly the cells whose padded box
+// overlaps the query box, in increasing order.
+func TestCellsInBoxOneBin(t *testing.T) {
+	f := &Field{Zones: []*Zone{hexGrid(6, 8), hexGrid(5, 9)}}
+	l, err := newLocator(f, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(25, 26))
+	oneBin := 0
+	for trial := 0; trial < 2000; trial++ {
+		var lo, hi [3]float64
+		for k := 0; k < 3; k++ {
+			lo[k] = 1.1*rng.Float64() - 0.05
+			hi[k] = lo[k] + 0.02*rng.Float64()*float64(trial%2)
+		}
+		if i0, i1 := l.binRange(lo[:], hi[:]); i0 == i1 {
+			oneBin++
+		}
+		got := l.CellsInBox(lo, hi, nil)
+		var want []CellRef
+		for g := 0; g < len(l.box)/6; g++ {
+			b := l.box[6*g : 6*g+6]
+			if b[0] <= hi[0] && b[3] >= lo[0] && b[1] <= hi[1] && b[4] >= lo[1] && b[2] <= hi[2] && b[5] >= lo[2] {
+				zi, c := l.ref(int32(g))
+				want = append(want, CellRef{int32(zi), int32(c)})
+			}
+		}
+		if !slices.Equal(got, want) {
+			t.Fatalf("box %v %v: got %v, want %v", lo, hi, got, want)
+		}
+	}
+	if oneBin < 500 {
+		t.Fatalf("only %d of the boxes lie in one bin", oneBin)
+	}
+}
+
+// Regression: a mesh whose extents multiply beyond the largest float64
+// (here 4e307 per axis) gets one bin per axis instead of none, so the
+// build neither panics nor loses cells.
+func TestLocatorHugeExtent(t *testing.T) {
+	z := hexGrid(4, 10)
+	for i := range z.Points {
+		z.Points[i] *= 4e307
+	}
+	l, err := newLocator(&Field{Zones: []*Zone{z}}, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if l.n != [3]int{1, 1, 1} {
+		t.Fatalf("bins per axis %v, want 1 1 1", l.n)
+	}
+	if got := l.CellsInBox([3]float64{-1e308, -1e308, -1e308}, [3]float64{1e308, 1e308, 1e308}, nil); len(got) != z.NumCells() {
+		t.Fatalf("CellsInBox found %d cells, want %d", len(got), z.NumCells())
+	}
+}
+
+// Exact: the edge tables of meanEdge hold the edges of each cell type
+// (counts from Euler's formula V - E + F = 2 for the solids: tetrahedron 6,
+// pyramid 8, wedge 9, hexahedron 12; a polygon has as many edges as nodes)
+// and one side per edge and adjacent face (twice the edges for solids).
+func TestEdgeTables(t *testing.T) {
+	want := map[CellType][2]int{Triangle: {3, 3}, Quad: {4, 4}, Tetra: {6, 12}, Pyramid: {8, 16}, Wedge: {9, 18}, Hexa: {12, 24}}
+	for ct, w := range want {
+		if e := edgeTables[ct]; len(e.edges) != w[0] || len(e.sides) != w[1] {
+			t.Errorf("%v: %d edges, %d sides; want %d, %d", ct, len(e.edges), len(e.sides), w[0], w[1])
+		}
+	}
+	if e := edgeTables[Polygon]; len(e.sides) != 0 {
+		t.Errorf("polygon: %d sides, want none", len(e.sides))
+	}
+}

@@ -176,8 +176,9 @@ func (g *cellGeom) position(r [3]float64) (x [3]float64) {
 // side by boxPad times its largest extent over the first dim axes (plus
 // 1e-300, so that a point cell still has a box). For dim 2 the z range is
 // unbounded. A NaN coordinate makes the box NaN, which holds no point. The
-// Locator's per-cell boxes, its query-time box test and CellMap all use
-// it, so they agree bit for bit.
+// Locator's query-time box test and CellMap use it, and the Locator's
+// per-cell boxes (nodeBox) pad the same bounds by the same padBox, so all
+// agree bit for bit.
 func (g *cellGeom) paddedBox(dim int) (lo, hi [3]float64) {
 	lo, hi = g.x[0], g.x[0]
 	for i := 1; i < g.n; i++ {
@@ -185,18 +186,34 @@ func (g *cellGeom) paddedBox(dim int) (lo, hi [3]float64) {
 		lo = [3]float64{min(lo[0], x[0]), min(lo[1], x[1]), min(lo[2], x[2])}
 		hi = [3]float64{max(hi[0], x[0]), max(hi[1], x[1]), max(hi[2], x[2])}
 	}
-	h := 0.0
-	for k := 0; k < dim; k++ {
-		h = max(h, hi[k]-lo[k])
-	}
-	pad := boxPad*h + 1e-300
-	for k := 0; k < 3; k++ {
-		lo[k], hi[k] = lo[k]-pad, hi[k]+pad
-	}
-	if dim == 2 {
-		lo[2], hi[2] = math.Inf(-1), math.Inf(1)
-	}
+	lo[0], lo[1], lo[2], hi[0], hi[1], hi[2] = padBox(dim, lo[0], lo[1], lo[2], hi[0], hi[1], hi[2])
 	return lo, hi
+}
+
+// padBox returns the bounds x0 <= x1, y0 <= y1, z0 <= z1 of some nodes
+// enlarged as paddedBox describes (all in registers: the Locator's build
+// computes the bounds straight from the points and pads them here, so that
+// its boxes are those of paddedBox).
+func padBox(dim int, x0, y0, z0, x1, y1, z1 float64) (float64, float64, float64, float64, float64, float64) {
+	// h holds the bits of the largest extent over the first dim axes. An
+	// extent is +0, positive or NaN, and such values order as their bits
+	// do (NaN last, as the builtin max propagates it): integer max, which
+	// compiles to a conditional move, gives the builtin's result.
+	h := uint64(0)
+	if dim >= 1 {
+		h = max(h, math.Float64bits(x1-x0))
+	}
+	if dim >= 2 {
+		h = max(h, math.Float64bits(y1-y0))
+	}
+	if dim >= 3 {
+		h = max(h, math.Float64bits(z1-z0))
+	}
+	pad := boxPad*math.Float64frombits(h) + 1e-300
+	if dim == 2 {
+		return x0 - pad, y0 - pad, math.Inf(-1), x1 + pad, y1 + pad, math.Inf(1)
+	}
+	return x0 - pad, y0 - pad, z0 - pad, x1 + pad, y1 + pad, z1 + pad
 }
 
 // size returns the largest extent of the bounding box of g.
