@@ -367,8 +367,45 @@ func combineNodal(N *[maxCellNodes]float64, nn int, G, dst []float64) {
 		}
 		return
 	}
-	// Node by node over contiguous values: each acc[i] still adds its
-	// terms in node order, so the bits are those of the loop above.
+	// Node by node over contiguous values: each output still adds its
+	// terms in node order, so the bits are those of the loop above. The
+	// common widths keep their sums in registers.
+	G = G[:nn*w]
+	switch w {
+	case 1:
+		a0 := 0.0
+		for k, g := range G {
+			a0 += N[k] * g
+		}
+		dst[0] = a0
+		return
+	case 3:
+		var a0, a1, a2 float64
+		for k := 0; k < nn; k++ {
+			g, nk := G[3*k:3*k+3:3*k+3], N[k]
+			a0 += nk * g[0]
+			a1 += nk * g[1]
+			a2 += nk * g[2]
+		}
+		dst[0], dst[1], dst[2] = a0, a1, a2
+		return
+	case 9:
+		var a0, a1, a2, a3, a4, a5, a6, a7, a8 float64
+		for k := 0; k < nn; k++ {
+			g, nk := G[9*k:9*k+9:9*k+9], N[k]
+			a0 += nk * g[0]
+			a1 += nk * g[1]
+			a2 += nk * g[2]
+			a3 += nk * g[3]
+			a4 += nk * g[4]
+			a5 += nk * g[5]
+			a6 += nk * g[6]
+			a7 += nk * g[7]
+			a8 += nk * g[8]
+		}
+		dst[0], dst[1], dst[2], dst[3], dst[4], dst[5], dst[6], dst[7], dst[8] = a0, a1, a2, a3, a4, a5, a6, a7, a8
+		return
+	}
 	a := acc[:w]
 	for k := 0; k < nn; k++ {
 		nk := N[k]
