@@ -201,10 +201,11 @@ func sumChunk(c *surface.Cut, flow field.FlowEvaluator, opt *Options, lo, hi int
 			run[sVis+k] += vis[k]
 			run[sRey+k] += rey[k]
 		}
-		for t, v := range [4]Vec3{cross(r, momPlain), cross(r, prs), cross(r, vis), cross(r, rey)} {
-			for k := 0; k < 3; k++ {
-				run[sMom2+3*t+k] += v[k]
-			}
+		addMoment(&run, sMom2+sMom, r, &momPlain)
+		addMoment(&run, sMom2+sPrs, r, &prs)
+		addMoment(&run, sMom2+sVis, r, &vis)
+		if st.HasR {
+			addMoment(&run, sMom2+sRey, r, &rey)
 		}
 	}
 	flush()
@@ -275,4 +276,11 @@ func evalFlow(flow field.FlowEvaluator, at field.Location, x [3]float64, st *fie
 		return
 	}
 	flow.EvalFlow(at, x, st)
+}
+
+// addMoment adds r × f to run[at:at+3].
+func addMoment(run *[nSums]float64, at int, r Vec3, f *Vec3) {
+	run[at] += r[1]*f[2] - r[2]*f[1]
+	run[at+1] += r[2]*f[0] - r[0]*f[2]
+	run[at+2] += r[0]*f[1] - r[1]*f[0]
 }
