@@ -4,33 +4,38 @@ import (
 	"runtime"
 	"sync"
 	"sync/atomic"
+
+	"farforce/field"
 )
 
 // forChunks runs fn(k) for k = 0 … n−1 on up to workers goroutines
-// (≤ 0: GOMAXPROCS), claiming k in increasing order, and returns the error
-// of the lowest failing k (every claimed k runs to completion, so that
-// error does not depend on the scheduling). fn must write only to data
-// owned by its k.
+// (≤ 0: GOMAXPROCS), handed out by a field.ChunkQueue (each goroutine
+// works through a contiguous share first, so neighbouring chunks, which
+// share cells and nodes, rarely run at once), and returns the error of
+// the lowest failing k. After a failure only chunks below the lowest
+// failure seen are still run, so that error does not depend on the
+// scheduling. fn must write only to data owned by its k.
 func forChunks(n, workers int, fn func(k int) error) error {
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(1, min(workers, n))
 	errs := make([]error, n)
-	var next atomic.Int64
-	var failed atomic.Bool
+	q := field.NewChunkQueue(n, workers)
+	var lowest atomic.Int64 // lowest failing chunk so far
+	lowest.Store(int64(n))
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for !failed.Load() {
-				k := int(next.Add(1) - 1)
-				if k >= n {
-					return
+			for k := q.Take(w); k >= 0; k = q.Take(w) {
+				if int64(k) > lowest.Load() {
+					continue
 				}
 				if errs[k] = fn(k); errs[k] != nil {
-					failed.Store(true)
+					for old := lowest.Load(); int64(k) < old && !lowest.CompareAndSwap(old, int64(k)); old = lowest.Load() {
+					}
 				}
 			}
 		}()

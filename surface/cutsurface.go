@@ -148,62 +148,23 @@ func CutSurface(l *field.Locator, s Shape, opt CutOptions) (*Cut, error) {
 
 // eachChunk runs the chunks 0..n-1 on workers goroutines; newWorker is
 // called once per goroutine and returns its chunk function (with its own
-// scratch state). Each goroutine starts on its own contiguous share of the
-// chunks and then takes chunks from the end of the largest share left, so
-// that consecutive chunks, which cross the same cells, mostly run on the
-// same goroutine (and hit its cell caches).
+// scratch state). Chunks are handed out by a field.ChunkQueue, so that
+// consecutive chunks, which cross the same cells, mostly run on the same
+// goroutine (and hit its cell caches).
 func eachChunk(n, workers int, newWorker func() func(ci int)) {
-	var q chunkShares
-	q.split(n, workers)
+	q := field.NewChunkQueue(n, workers)
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			do := newWorker()
-			for ci := q.take(w); ci >= 0; ci = q.take(w) {
+			for ci := q.Take(w); ci >= 0; ci = q.Take(w) {
 				do(ci)
 			}
 		}()
 	}
 	wg.Wait()
-}
-
-// chunkShares is the work queue of eachChunk: share w is
-// the chunks lo[w]..hi[w]-1 not yet taken.
-type chunkShares struct {
-	mu     sync.Mutex
-	lo, hi []int
-}
-
-// split divides the chunks 0..n-1 into workers contiguous shares.
-func (q *chunkShares) split(n, workers int) {
-	q.lo, q.hi = make([]int, workers), make([]int, workers)
-	for w := range q.lo {
-		q.lo[w], q.hi[w] = w*n/workers, (w+1)*n/workers
-	}
-}
-
-// take returns the next chunk of share w or, when that is empty, the last
-// chunk of the largest share; -1 when no chunk is left.
-func (q *chunkShares) take(w int) int {
-	q.mu.Lock()
-	defer q.mu.Unlock()
-	if q.lo[w] < q.hi[w] {
-		q.lo[w]++
-		return q.lo[w] - 1
-	}
-	best := w
-	for v := range q.lo {
-		if q.hi[v]-q.lo[v] > q.hi[best]-q.lo[best] {
-			best = v
-		}
-	}
-	if q.lo[best] == q.hi[best] {
-		return -1
-	}
-	q.hi[best]--
-	return q.hi[best]
 }
 
 // chunkResult is the output of one chunk of facets: its pieces (First
