@@ -399,9 +399,8 @@ func (fs *FlowSampler) EvalFlow(at Location, x [3]float64, dst *FlowState) {
 // of one cut piece, gather it once. The zero value is empty and ready; a
 // cache belongs to one goroutine.
 type FlowCache struct {
-	fs      *FlowSampler
+	fs      *FlowSampler // the sampler that gathered st (nil: nothing yet)
 	st      site
-	full    bool // st holds a gathered cell
 	hasGrad bool // grad holds the nodal velocity gradients of that cell
 	hasVals bool // vals holds the node values of the cached arrays
 	grad    [maxCellNodes * 9]float64
@@ -425,9 +424,9 @@ func (fs *FlowSampler) EvalFlowCached(at Location, x [3]float64, dst *FlowState,
 	s := fs.s
 	*dst = FlowState{}
 	st := &c.st
-	if c.fs != fs || !c.full || st.at.Zone != at.Zone || st.at.Cell != at.Cell {
+	if c.fs != fs || st.at.Zone != at.Zone || st.at.Cell != at.Cell {
 		s.site(at, st) // one gather for every array
-		c.fs, c.full, c.hasGrad, c.hasVals = fs, true, false, false
+		c.fs, c.hasGrad, c.hasVals = fs, false, false
 	} else {
 		st.at, st.hasN = at, false
 	}
