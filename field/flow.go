@@ -182,25 +182,23 @@ func GuessFlowMap(f *Field) (FlowMap, []string) {
 		notes = append(notes, "density: not found (give --density NAME or a constant)")
 	}
 
-	if mu := first(guessDynVisc, scalar); mu != "" {
-		m.Viscosity = Quantity{Name: mu}
-		notes = append(notes, fmt.Sprintf("viscosity: %q (dynamic)", mu))
-	} else if nu := first(guessKinVisc, scalar); nu != "" {
-		m.Viscosity = Quantity{Name: nu}
-		m.KinematicViscosity = true
-		notes = append(notes, fmt.Sprintf("viscosity: %q (kinematic, mu = rho*nu)", nu))
-	} else {
+	// A viscosity is an array of dynamic values, else of kinematic ones.
+	viscosity := func(what string, dyn, kin []string, kinNote string) (q Quantity, kinematic, found bool) {
+		if n := first(dyn, scalar); n != "" {
+			notes = append(notes, fmt.Sprintf("%s: %q (dynamic)", what, n))
+			return Quantity{Name: n}, false, true
+		}
+		if n := first(kin, scalar); n != "" {
+			notes = append(notes, fmt.Sprintf("%s: %q (kinematic, %s)", what, n, kinNote))
+			return Quantity{Name: n}, true, true
+		}
+		return Quantity{}, false, false
+	}
+	var found bool
+	if m.Viscosity, m.KinematicViscosity, found = viscosity("viscosity", guessDynVisc, guessKinVisc, "mu = rho*nu"); !found {
 		notes = append(notes, "viscosity: not found (give --viscosity NAME or a constant; inviscid otherwise)")
 	}
-
-	if e := first(guessEddyDyn, scalar); e != "" {
-		m.EddyViscosity = Quantity{Name: e}
-		notes = append(notes, fmt.Sprintf("eddy viscosity: %q (dynamic)", e))
-	} else if e := first(guessEddyKin, scalar); e != "" {
-		m.EddyViscosity = Quantity{Name: e}
-		m.EddyKinematic = true
-		notes = append(notes, fmt.Sprintf("eddy viscosity: %q (kinematic, mu_t = rho*nut)", e))
-	}
+	m.EddyViscosity, m.EddyKinematic, _ = viscosity("eddy viscosity", guessEddyDyn, guessEddyKin, "mu_t = rho*nut")
 
 	if r := first(guessReynolds, map[int]bool{6: true, 9: true}); r != "" {
 		m.ReynoldsStress = r

@@ -1,46 +1,20 @@
-package field
+package field_test
 
 import (
 	"math"
-	"math/rand/v2"
 	"runtime"
 	"testing"
+
+	"farforce/field"
+	"farforce/field/fieldtest"
 )
 
-// perturbedHexBox returns a zone of n³ hexahedra filling the unit cube,
-// interior points moved randomly by up to amp per coordinate (demo
-// geometry), with a point array "f" of invented smooth values.
-func perturbedHexBox(n int, amp float64) *Zone {
-	z := &Zone{Name: "box"}
-	rng := rand.New(rand.NewPCG(5, 6))
-	for k := 0; k <= n; k++ {
-		for j := 0; j <= n; j++ {
-			for i := 0; i <= n; i++ {
-				x := [3]float64{float64(i) / float64(n), float64(j) / float64(n), float64(k) / float64(n)}
-				if i > 0 && i < n && j > 0 && j < n && k > 0 && k < n {
-					for a := range x {
-						x[a] += amp * (2*rng.Float64() - 1)
-					}
-				}
-				z.Points = append(z.Points, x[:]...)
-			}
-		}
-	}
-	id := func(i, j, k int) int32 { return int32((k*(n+1)+j)*(n+1) + i) }
-	for k := 0; k < n; k++ {
-		for j := 0; j < n; j++ {
-			for i := 0; i < n; i++ {
-				z.AddCell(Hexa, id(i, j, k), id(i+1, j, k), id(i+1, j+1, k), id(i, j+1, k),
-					id(i, j, k+1), id(i+1, j, k+1), id(i+1, j+1, k+1), id(i, j+1, k+1))
-			}
-		}
-	}
-	a := Array{Name: "f", Location: AtPoints, Components: 1, Data: make([]float64, z.NumPoints())}
-	for p := range a.Data {
-		x := z.Point(int32(p))
-		a.Data[p] = x[0]*x[1] + x[2]*x[2]
-	}
-	z.Arrays = append(z.Arrays, a)
+// recoveryBox returns a perturbed n³ hexahedral unit box (interior points
+// moved by up to 0.1 cell) with a point array "f" of invented smooth values.
+func recoveryBox(n int) *field.Zone {
+	z := fieldtest.BoxHex(unitLo, unitHi, [3]int{n, n, n})
+	fieldtest.Perturb(z, 0.1/float64(n), 5)
+	fieldtest.SamplePoints(z, "f", 1, func(x [3]float64, d []float64) { d[0] = x[0]*x[1] + x[2]*x[2] })
 	return z
 }
 
@@ -49,7 +23,7 @@ func perturbedHexBox(n int, amp float64) *Zone {
 // each operator is built once per pass), per node, in wall and in thread
 // CPU time.
 func BenchmarkBuildNodeOps(b *testing.B) {
-	z := perturbedHexBox(30, 0.1/30)
+	z := recoveryBox(30)
 	nodes := make([]int32, z.NumPoints())
 	for n := range nodes {
 		nodes[n] = int32(n)
@@ -63,8 +37,8 @@ func BenchmarkBuildNodeOps(b *testing.B) {
 // points first need them: the recovery work of BenchmarkFlowSphereCold
 // alone.
 func BenchmarkBuildNodeOpsSphere(b *testing.B) {
-	z := perturbedHexBox(100, 0.1/100)
-	l, err := NewLocator(&Field{Zones: []*Zone{z}})
+	z := recoveryBox(100)
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -91,8 +65,8 @@ func BenchmarkBuildNodeOpsSphere(b *testing.B) {
 
 // benchmarkNodeOps times building the operators of nodes of z in order,
 // with a fresh Sampler per pass.
-func benchmarkNodeOps(b *testing.B, z *Zone, nodes []int32) {
-	l, err := NewLocator(&Field{Zones: []*Zone{z}})
+func benchmarkNodeOps(b *testing.B, z *field.Zone, nodes []int32) {
+	l, err := field.NewLocator(&field.Field{Zones: []*field.Zone{z}})
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -102,16 +76,16 @@ func benchmarkNodeOps(b *testing.B, z *Zone, nodes []int32) {
 	var cpu int64
 	for b.Loop() {
 		b.StopTimer()
-		s := NewSampler(l)
+		s := field.NewSampler(l)
 		if _, err := s.Prepare("f"); err != nil {
 			b.Fatal(err)
 		}
 		b.StartTimer()
-		c0 := threadCPU()
+		c0 := fieldtest.ThreadCPU()
 		for _, n := range nodes {
-			s.nodeOp(0, n)
+			field.BuildNodeOp(s, 0, n)
 		}
-		cpu += threadCPU() - c0
+		cpu += int64(fieldtest.ThreadCPU() - c0)
 	}
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*len(nodes)), "ns/node")
 	b.ReportMetric(float64(cpu)/float64(b.N*len(nodes)), "cpu-ns/node")
